@@ -1,0 +1,116 @@
+import type { Metadata } from 'next';
+import Image from 'next/image';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { connection } from 'next/server';
+import { cache } from 'react';
+import { MaskSafetyNote } from '@/components/mask-safety-note';
+import { Price } from '@/components/ui/price';
+import { getPublishedDesignBySlug } from '@/lib/catalogue/designs';
+import { designPageParamsSchema, designPageSearchSchema } from '@/lib/catalogue/schemas';
+import { FitTable } from './_components/fit-table';
+
+type Props = {
+  params: Promise<{ slug: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+};
+
+// Metadata and page share one database read per request.
+const loadDesign = cache(async (rawSlug: string) => {
+  const parsed = designPageParamsSchema.safeParse({ slug: rawSlug });
+  return parsed.success ? getPublishedDesignBySlug(parsed.data.slug) : null;
+});
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const design = await loadDesign((await params).slug);
+  if (!design) return { title: 'Design not found' };
+  return { title: `${design.name} mask`, description: design.summary };
+}
+
+export default async function DesignPage({ params, searchParams }: Props) {
+  await connection();
+  const design = await loadDesign((await params).slug);
+  if (!design) notFound();
+
+  const { finish: wanted } = designPageSearchSchema.parse(await searchParams);
+  const selected = design.finishes.find((finish) => finish.slug === wanted) ?? design.finishes[0];
+  if (!selected) notFound();
+
+  return (
+    <article className="grid gap-10 py-10 lg:grid-cols-[3fr_2fr] lg:gap-16">
+      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-1 xl:grid-cols-2">
+        {selected.photos.map((photo, index) => (
+          <div key={photo.src} className="relative aspect-[4/5] overflow-hidden rounded-sm bg-paper-deep">
+            <Image
+              src={photo.src}
+              alt={photo.alt}
+              fill
+              priority={index === 0}
+              sizes="(min-width: 1280px) 22rem, (min-width: 1024px) 36rem, (min-width: 640px) 45vw, 92vw"
+              className="object-cover"
+            />
+          </div>
+        ))}
+      </div>
+
+      <div>
+        <p className="text-sm font-semibold uppercase tracking-[0.18em] text-ink-faint">{design.studio.name}</p>
+        <h1 className="mt-2 text-5xl font-medium">{design.name}</h1>
+        <p className="mt-3 text-lg text-ink-soft">{design.summary}</p>
+
+        <p className="mt-6 text-3xl">
+          <Price value={selected.price} />
+          <span className="ml-2 align-middle text-base text-ink-soft">in {selected.name}</span>
+        </p>
+
+        <h2 className="mt-8 font-sans text-sm font-semibold uppercase tracking-wider text-ink-soft">Finish</h2>
+        <ul className="mt-3 grid gap-2">
+          {design.finishes.map((finish) => {
+            const isSelected = finish.slug === selected.slug;
+            return (
+              <li key={finish.slug}>
+                <Link
+                  href={`/designs/${design.slug}?finish=${finish.slug}`}
+                  scroll={false}
+                  aria-current={isSelected ? 'true' : undefined}
+                  className={`flex items-baseline justify-between gap-4 rounded-sm border px-4 py-3 ${
+                    isSelected ? 'border-ink bg-paper-deep' : 'border-paper-edge hover:border-ink-faint'
+                  }`}
+                >
+                  <span>
+                    <span className="font-semibold">{finish.name}</span>
+                    {isSelected ? <span className="sr-only"> (shown)</span> : null}
+                    <span className="block text-sm text-ink-soft">{finish.description}</span>
+                  </span>
+                  <Price value={finish.price} className="shrink-0" />
+                </Link>
+              </li>
+            );
+          })}
+        </ul>
+        <p className="mt-3 text-sm text-ink-faint">
+          About {selected.paintHours} hours of hand painting go into each {selected.name} mask.
+        </p>
+
+        <section className="mt-10" aria-labelledby="story-title">
+          <h2 id="story-title" className="text-2xl font-medium">
+            The sculpt
+          </h2>
+          <p className="mt-2 text-ink-soft">{design.story}</p>
+        </section>
+
+        <FitTable fit={design.fit} />
+
+        <section className="mt-10" aria-labelledby="materials-title">
+          <h2 id="materials-title" className="text-2xl font-medium">
+            Materials and care
+          </h2>
+          <p className="mt-2 text-ink-soft">{design.materials}</p>
+          <p className="mt-2 text-ink-soft">{design.care}</p>
+        </section>
+
+        <MaskSafetyNote className="mt-10 rounded-sm border border-paper-edge bg-paper-deep/60 p-5" />
+      </div>
+    </article>
+  );
+}

@@ -1,0 +1,29 @@
+import type { Sequelize } from 'sequelize';
+import { Design } from './design';
+import { Finish } from './finish';
+import { Photo } from './photo';
+import { Studio } from './studio';
+
+export { Design, Finish, Photo, Studio };
+export { designStatuses, type DesignStatus } from './design';
+
+/** Binds every model to one connection and declares how they relate. Call once per Sequelize instance. */
+export function initModels(sequelize: Sequelize) {
+  Studio.initModel(sequelize);
+  Design.initModel(sequelize);
+  Finish.initModel(sequelize);
+  Photo.initModel(sequelize);
+
+  Studio.hasMany(Design, { foreignKey: 'studioId', as: 'designs' });
+  Design.belongsTo(Studio, { foreignKey: 'studioId', as: 'studio' });
+  Design.hasMany(Finish, { foreignKey: 'designId', as: 'finishes' });
+  Finish.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  Design.hasMany(Photo, { foreignKey: 'designId', as: 'photos' });
+  Finish.hasMany(Photo, { foreignKey: 'finishId', as: 'photos' });
+  Photo.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  Photo.belongsTo(Finish, { foreignKey: 'finishId', as: 'finish' });
+
+  return { Studio, Design, Finish, Photo };
+}
+
+export type Models = ReturnType<typeof initModels>;

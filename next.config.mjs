@@ -1,0 +1,10 @@
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  // Sequelize loads its dialect with a dynamic require, and pg has an optional native module:
+  // bundling either breaks at run time, so they stay plain Node packages on the server.
+  serverExternalPackages: ['sequelize', 'pg', 'pg-hstore', 'sharp'],
+  poweredByHeader: false,
+  reactStrictMode: true,
+};
+
+export default nextConfig;

@@ -1,0 +1,103 @@
+#!/usr/bin/env node
+// npm run demo: everything the product needs on this machine, then the app in production mode.
+// Ctrl-C stops what this command started (a PostgreSQL it found running is left running).
+import fs from 'node:fs';
+import path from 'node:path';
+import { ensureDependencies } from './lib/deps.mjs';
+import { root, run, startService, step, waitForHttp } from './lib/run.mjs';
+
+const args = new Set(process.argv.slice(2));
+const devMode = args.has('--dev');
+const skipBuild = args.has('--no-build') && fs.existsSync(path.join(root, '.next/BUILD_ID'));
+const port = Number(process.env.PORT ?? 3000);
+const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 1025);
+const inboxPort = Number(process.env.FAKE_INBOX_PORT ?? 1080);
+
+const services = [];
+let postgres;
+let stopping = false;
+
+async function shutdown(code) {
+  if (stopping) return;
+  stopping = true;
+  console.log('\nStopping the demo…');
+  for (const service of services.reverse()) service.stop();
+  if (postgres?.startedHere) {
+    try {
+      postgres.stop();
+    } catch (error) {
+      console.error(`PostgreSQL did not stop cleanly: ${error.message}`);
+    }
+  }
+  process.exit(code);
+}
+process.on('SIGINT', () => shutdown(0));
+process.on('SIGTERM', () => shutdown(0));
+
+try {
+  ensureDependencies();
+  // Only now may modules that need the dependencies be loaded.
+  const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
+  const { startFakeMail } = await import('../fake-services/mail/index.mjs');
+
+  postgres = await ensurePostgres();
+  const databaseUrl = postgres.urlFor(process.env.DEMOLD_DB_NAME ?? 'demold');
+  await ensureDatabase(databaseUrl);
+  step('Migrating the database');
+  sequelizeCli(databaseUrl, ['db:migrate']);
+  step('Seeding the demo studio (first run only)');
+  sequelizeCli(databaseUrl, ['db:seed:all']);
+  // The photos are files, not rows: make sure they exist even when the rows were seeded earlier.
+  run(process.execPath, ['seeders/support/render-demo-art.cjs']);
+
+  step('Starting the fake mail inbox');
+  const mail = await startFakeMail({ smtpPort, webPort: inboxPort });
+  services.push(mail.service);
+
+  const appUrl = `http://127.0.0.1:${port}`;
+  const env = {
+    ...process.env,
+    DATABASE_URL: databaseUrl,
+    APP_URL: appUrl,
+    SMTP_URL: mail.smtpUrl,
+    DEMO_MODE: 'true',
+    NEXT_TELEMETRY_DISABLED: '1',
+  };
+  const next = path.join(root, 'node_modules/next/dist/bin/next');
+  if (!devMode && !skipBuild) {
+    step('Building the app for production (about a minute)');
+    run(process.execPath, [next, 'build'], { env: { ...env, NODE_ENV: 'production' } });
+  }
+  step(devMode ? 'Starting the app in development mode' : 'Starting the app');
+  const app = startService(
+    'app',
+    process.execPath,
+    [next, devMode ? 'dev' : 'start', '-H', '127.0.0.1', '-p', String(port)],
+    { env: { ...env, NODE_ENV: devMode ? 'development' : 'production' } },
+  );
+  services.push(app);
+  app.child.on('exit', (code) => {
+    if (!stopping) {
+      console.error(`The app stopped (exit ${code}).`);
+      shutdown(code ?? 1);
+    }
+  });
+  await waitForHttp(`${appUrl}/api/health`, { timeoutMs: 120_000, process: app.child });
+
+  console.log(`
+\x1b[1mDemold is running.\x1b[0m
+
+  Shop        ${appUrl}/
+  Workshop    not built yet: the maker's area arrives with sign-in
+  Fake inbox  ${mail.inboxUrl}/   (every e-mail the app sends lands here)
+  Health      ${appUrl}/api/health
+  Database    ${databaseUrl}
+
+Sign-in is not built yet, so there is nothing to sign in to: the shop is open to browse.
+The demo studio is "Marrowgate Studio" with its designs Ibex, Hare, Moth and Boar (the Ram is a draft).
+
+Press Ctrl-C to stop.`);
+} catch (error) {
+  console.error(`\n\x1b[31mThe demo could not start:\x1b[0m ${error instanceof Error ? error.message : error}`);
+  await shutdown(1);
+}

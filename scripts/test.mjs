@@ -1,0 +1,120 @@
+#!/usr/bin/env node
+// npm test: every check, on a fresh machine too. Sets up what it needs (dependencies, PostgreSQL, the test
+// databases, Chromium, the fake inbox), runs lint, typecheck, vitest and Playwright, and exits non-zero on
+// any failure. Steps after a failure still run where they can, so one run shows every problem.
+import fs from 'node:fs';
+import path from 'node:path';
+import { ensureDependencies } from './lib/deps.mjs';
+import { aptInstall, root, runStatus, step } from './lib/run.mjs';
+
+const results = [];
+const services = [];
+const started = Date.now();
+
+function record(name, status, extra = '') {
+  results.push({ name, ok: status === 0, extra });
+  return status === 0;
+}
+
+function readJson(file) {
+  try {
+    return JSON.parse(fs.readFileSync(path.join(root, file), 'utf8'));
+  } catch {
+    return null;
+  }
+}
+
+function ensureChromium() {
+  if (fs.existsSync('/usr/bin/chromium')) return;
+  aptInstall(['chromium', 'fonts-dejavu-core'], 'Chromium for the browser tests');
+}
+
+let postgres;
+let exitCode = 1;
+try {
+  ensureDependencies();
+  ensureChromium();
+  const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
+  const { startFakeMail } = await import('../fake-services/mail/index.mjs');
+
+  fs.rmSync(path.join(root, 'test-results'), { recursive: true, force: true });
+  postgres = await ensurePostgres();
+  const testAdminUrl = postgres.urlFor('demold_test');
+  await ensureDatabase(testAdminUrl);
+  const env = { ...process.env, NEXT_TELEMETRY_DISABLED: '1', TEST_DATABASE_URL: testAdminUrl };
+  const bin = (file) => path.join(root, 'node_modules', file);
+
+  step('Lint (ESLint with the Next.js rules)');
+  record('lint', runStatus(process.execPath, [bin('eslint/bin/eslint.js'), '.', '--max-warnings', '0'], { env }));
+
+  step('Typecheck (tsc, strict)');
+  runStatus(process.execPath, [bin('next/dist/bin/next'), 'typegen'], { env });
+  record('typecheck', runStatus(process.execPath, [bin('typescript/bin/tsc'), '--noEmit'], { env }));
+
+  step('Unit and integration tests (vitest, integration against PostgreSQL)');
+  const vitestOk = record(
+    'vitest',
+    runStatus(
+      process.execPath,
+      [bin('vitest/vitest.mjs'), 'run', '--reporter=default', '--reporter=json', '--outputFile.json=test-results/vitest.json'],
+      { env: { ...env, NODE_ENV: 'test' } },
+    ),
+  );
+
+  step('Preparing the browser tests: a freshly seeded database and a production build');
+  const e2eUrl = postgres.urlFor('demold_e2e');
+  await ensureDatabase(e2eUrl, { fresh: true });
+  sequelizeCli(e2eUrl, ['db:migrate']);
+  sequelizeCli(e2eUrl, ['db:seed:all']);
+  const mail = await startFakeMail({ smtpPort: 1125, webPort: 1180, quiet: true });
+  services.push(mail.service);
+  const appEnv = {
+    ...env,
+    DATABASE_URL: e2eUrl,
+    APP_URL: 'http://127.0.0.1:3100',
+    SMTP_URL: mail.smtpUrl,
+    FAKE_INBOX_URL: mail.inboxUrl,
+    DEMO_MODE: 'true',
+    E2E_PORT: '3100',
+  };
+  const built = record(
+    'build',
+    runStatus(process.execPath, [bin('next/dist/bin/next'), 'build'], { env: { ...appEnv, NODE_ENV: 'production' } }),
+  );
+
+  if (built) {
+    step('Browser tests (Playwright with Debian’s Chromium)');
+    record(
+      'playwright',
+      runStatus(process.execPath, [bin('@playwright/test/cli.js'), 'test'], { env: { ...appEnv, NODE_ENV: 'production' } }),
+    );
+  } else {
+    record('playwright', 1, 'not run: the build failed');
+  }
+
+  const vitest = readJson('test-results/vitest.json');
+  const playwright = readJson('test-results/playwright.json');
+  const passed = (vitest?.numPassedTests ?? 0) + (playwright?.stats?.expected ?? 0);
+  const failed = (vitest?.numFailedTests ?? 0) + (playwright?.stats?.unexpected ?? 0) + (playwright?.stats?.flaky ?? 0);
+  const skipped = (vitest?.numPendingTests ?? 0) + (vitest?.numTodoTests ?? 0) + (playwright?.stats?.skipped ?? 0);
+
+  console.log('\n\x1b[1mSummary\x1b[0m');
+  for (const r of results) console.log(`  ${r.ok ? '✔' : '✘'} ${r.name}${r.extra ? ` (${r.extra})` : ''}`);
+  if (!vitestOk && !vitest) console.log('  vitest wrote no report: see its output above');
+  console.log(`  took ${Math.round((Date.now() - started) / 1000)} s`);
+  console.log(`\ntests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+  exitCode = results.every((r) => r.ok) && failed === 0 && passed > 0 ? 0 : 1;
+} catch (error) {
+  console.error(`\n\x1b[31mThe tests could not run:\x1b[0m ${error instanceof Error ? error.message : error}`);
+  exitCode = 1;
+} finally {
+  for (const service of services) service.stop();
+  if (postgres?.startedHere) {
+    try {
+      postgres.stop();
+    } catch (error) {
+      console.error(`PostgreSQL did not stop cleanly: ${error.message}`);
+    }
+  }
+}
+process.exit(exitCode);

@@ -1,0 +1,77 @@
+import { expect, test } from '@playwright/test';
+import { HomePage } from './pages/home-page';
+
+test.describe('the shop’s home page', () => {
+  test('shows the studio’s published designs with prices and photos', async ({ page }, testInfo) => {
+    const requests: string[] = [];
+    page.on('request', (request) => requests.push(request.url()));
+    const home = new HomePage(page);
+    await home.open();
+
+    await expect(page.getByText('Marrowgate Studio')).toBeVisible();
+    await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+
+    // The demo publishes four designs; the Ram is still a draft and must not be offered.
+    for (const name of ['Ibex', 'Hare', 'Moth', 'Boar']) {
+      const card = home.design(name);
+      await expect(card).toBeVisible();
+      await expect(card).toContainText(/from €\d+\.\d\d/);
+    }
+    await expect(home.design('Ram')).toHaveCount(0);
+    await expect(home.designs).toHaveCount(4);
+
+    // Every cover photo has really loaded (a broken image has no natural width).
+    const covers = page.getByRole('region', { name: 'Designs' }).getByRole('img');
+    await expect(covers).toHaveCount(4);
+    for (const cover of await covers.all()) {
+      await cover.scrollIntoViewIfNeeded();
+      await expect.poll(() => cover.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);
+      await expect(cover).toHaveAttribute('alt', /mask in the .+ finish/);
+    }
+
+    // The shipped fonts are loaded from the app itself, and nothing at all is fetched from elsewhere.
+    await page.evaluate(() => document.fonts.ready);
+    const loadedFaces = await page.evaluate(() =>
+      [...document.fonts].filter((face) => face.status === 'loaded').map((face) => face.family),
+    );
+    expect(loadedFaces.length).toBeGreaterThanOrEqual(2);
+    expect(requests.filter((url) => url.endsWith('.woff2')).length).toBeGreaterThanOrEqual(2);
+    const origin = new URL(page.url()).origin;
+    expect(requests.filter((url) => !url.startsWith(origin) && !url.startsWith('data:'))).toEqual([]);
+
+    await expect(page.getByRole('complementary', { name: 'Wearing a mask safely' })).toBeVisible();
+
+    await page.screenshot({ path: testInfo.outputPath('home.png'), fullPage: true });
+    await page.screenshot({ path: `test-results/screenshots/home-${testInfo.project.name}.png`, fullPage: true });
+  });
+
+  test('opens a design and switches its finish', async ({ page }) => {
+    const home = new HomePage(page);
+    await home.open();
+    await home.design('Hare').getByRole('link').click();
+
+    await expect(page).toHaveURL(/\/designs\/hare$/);
+    await expect(page.getByRole('heading', { level: 1, name: 'Hare' })).toBeVisible();
+    await page.getByRole('link', { name: /Verdigris/ }).click();
+    await expect(page).toHaveURL(/finish=verdigris/);
+    await expect(page.getByRole('link', { name: /Verdigris/ })).toHaveAttribute('aria-current', 'true');
+    await expect(page.getByRole('img').first()).toHaveAttribute('alt', /Verdigris finish/);
+  });
+
+  test('answers a missing design with the not-found page and a 404', async ({ page }) => {
+    const response = await page.goto('/designs/ram');
+    expect(response?.status()).toBe(404);
+    await expect(page.getByRole('heading', { name: 'This design is not in the shop' })).toBeVisible();
+
+    const malformed = await page.goto('/designs/%20DROP%20TABLE');
+    expect(malformed?.status()).toBe(404);
+  });
+
+  test('reports the database as up on the health endpoint', async ({ request }) => {
+    const response = await request.get('/api/health');
+    expect(response.status()).toBe(200);
+    expect(response.headers()['cache-control']).toBe('no-store');
+    const body = await response.json();
+    expect(body).toMatchObject({ status: 'ok', checks: { database: { status: 'up' } } });
+  });
+});
