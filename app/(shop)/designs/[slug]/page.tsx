@@ -4,7 +4,6 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { cache } from 'react';
-import { MaskSafetyNote } from '@/components/mask-safety-note';
 import { Price } from '@/components/ui/price';
 import { getPublishedDesignBySlug } from '@/lib/catalogue/designs';
 import { designPageParamsSchema, designPageSearchSchema } from '@/lib/catalogue/schemas';
@@ -38,7 +37,7 @@ export default async function DesignPage({ params, searchParams }: Props) {
 
   return (
     <article className="grid gap-10 py-10 lg:grid-cols-[3fr_2fr] lg:gap-16">
-      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-1 xl:grid-cols-2">
+      <div className="grid gap-4 self-start sm:grid-cols-2 lg:sticky lg:top-6 lg:grid-cols-1 xl:grid-cols-2">
         {selected.photos.map((photo, index) => (
           <div key={photo.src} className="relative aspect-[4/5] overflow-hidden rounded-sm bg-paper-deep">
             <Image
@@ -109,7 +108,6 @@ export default async function DesignPage({ params, searchParams }: Props) {
           <p className="mt-2 text-ink-soft">{design.care}</p>
         </section>
 
-        <MaskSafetyNote className="mt-10 rounded-sm border border-paper-edge bg-paper-deep/60 p-5" />
       </div>
     </article>
   );
