@@ -1,6 +1,9 @@
 import Link from 'next/link';
+import { getCurrentUser } from '@/lib/auth/session';
+import { hasRole } from '@/lib/auth/roles';
 
-export function SiteHeader() {
+export async function SiteHeader() {
+  const user = await getCurrentUser();
   return (
     <header className="border-b border-paper-edge/70">
       <div className="mx-auto flex max-w-gallery items-center justify-between gap-4 px-5 py-4 sm:px-8">
@@ -12,6 +15,21 @@ export function SiteHeader() {
             <li>
               <Link href="/#designs" className="underline-offset-4 hover:text-ink hover:underline">
                 Designs
+              </Link>
+            </li>
+            {user && hasRole(user.role, 'staff') ? (
+              <li>
+                <Link href="/workshop" className="underline-offset-4 hover:text-ink hover:underline">
+                  Workshop
+                </Link>
+              </li>
+            ) : null}
+            <li>
+              <Link
+                href={user ? '/account' : '/sign-in'}
+                className="rounded-full border border-paper-edge px-3 py-1.5 text-ink hover:border-ink"
+              >
+                {user ? (user.name?.split(' ')[0] ?? 'Account') : 'Sign in'}
               </Link>
             </li>
           </ul>

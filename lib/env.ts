@@ -30,6 +30,10 @@ export const envSchema = z.object({
     .default('smtp://127.0.0.1:1025'),
   MAIL_FROM: z.string().min(3).default('Demold <no-reply@demold.test>'),
   DEMO_MODE: booleanFlag,
+  AUTH_SECRET: z
+    .string({ error: 'AUTH_SECRET is not set: `npm run demo` makes one; elsewhere generate one with `openssl rand -base64 32`' })
+    .min(32, 'AUTH_SECRET must be at least 32 characters: generate one with `openssl rand -base64 32`'),
+  SIGN_IN_LINK_MINUTES: z.coerce.number().int().min(5).max(24 * 60).default(15),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -3,8 +3,12 @@ import { Design } from './design';
 import { Finish } from './finish';
 import { Photo } from './photo';
 import { Studio } from './studio';
+import { Account } from './account';
+import { AuthSession } from './auth-session';
+import { User } from './user';
+import { VerificationToken } from './verification-token';
 
-export { Design, Finish, Photo, Studio };
+export { Account, AuthSession, Design, Finish, Photo, Studio, User, VerificationToken };
 export { designStatuses, type DesignStatus } from './design';
 
 /** Binds every model to one connection and declares how they relate. Call once per Sequelize instance. */
@@ -13,6 +17,10 @@ export function initModels(sequelize: Sequelize) {
   Design.initModel(sequelize);
   Finish.initModel(sequelize);
   Photo.initModel(sequelize);
+  User.initModel(sequelize);
+  Account.initModel(sequelize);
+  AuthSession.initModel(sequelize);
+  VerificationToken.initModel(sequelize);
 
   Studio.hasMany(Design, { foreignKey: 'studioId', as: 'designs' });
   Design.belongsTo(Studio, { foreignKey: 'studioId', as: 'studio' });
@@ -23,7 +31,12 @@ export function initModels(sequelize: Sequelize) {
   Photo.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
   Photo.belongsTo(Finish, { foreignKey: 'finishId', as: 'finish' });
 
-  return { Studio, Design, Finish, Photo };
+  User.hasMany(Account, { foreignKey: 'userId', as: 'accounts' });
+  Account.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  User.hasMany(AuthSession, { foreignKey: 'userId', as: 'sessions' });
+  AuthSession.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+
+  return { Studio, Design, Finish, Photo, User, Account, AuthSession, VerificationToken };
 }
 
 export type Models = ReturnType<typeof initModels>;

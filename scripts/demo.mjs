@@ -5,6 +5,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies } from './lib/deps.mjs';
 import { root, run, startService, step, waitForHttp } from './lib/run.mjs';
+import { ensureAuthSecret } from './lib/secrets.mjs';
 
 const args = new Set(process.argv.slice(2));
 const devMode = args.has('--dev');
@@ -59,6 +60,8 @@ try {
     ...process.env,
     DATABASE_URL: databaseUrl,
     APP_URL: appUrl,
+    NEXTAUTH_URL: appUrl,
+    AUTH_SECRET: ensureAuthSecret(),
     SMTP_URL: mail.smtpUrl,
     DEMO_MODE: 'true',
     NEXT_TELEMETRY_DISABLED: '1',
@@ -88,12 +91,18 @@ try {
 \x1b[1mDemold is running.\x1b[0m
 
   Shop        ${appUrl}/
-  Workshop    not built yet: the maker's area arrives with sign-in
+  Sign in     ${appUrl}/sign-in
+  Workshop    ${appUrl}/workshop   (makers and studio hands)
   Fake inbox  ${mail.inboxUrl}/   (every e-mail the app sends lands here)
   Health      ${appUrl}/api/health
   Database    ${databaseUrl}
 
-Sign-in is not built yet, so there is nothing to sign in to: the shop is open to browse.
+How to sign in: open the sign-in page and click one of the demo people (demo mode only):
+  Ines Marrow or Tam Greaves   makers (owners): the whole workshop
+  Kit Sorrel                   studio hand (staff)
+  Juno Pell or Rafe Quill      buyers
+Or type any address to get a sign-in link by e-mail: it arrives in the fake inbox above.
+
 The demo studio is "Marrowgate Studio" with its designs Ibex, Hare, Moth and Boar (the Ram is a draft).
 
 Press Ctrl-C to stop.`);

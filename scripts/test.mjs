@@ -6,6 +6,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies } from './lib/deps.mjs';
 import { aptInstall, root, runStatus, step } from './lib/run.mjs';
+import { ensureAuthSecret } from './lib/secrets.mjs';
 
 const results = [];
 const services = [];
@@ -41,7 +42,12 @@ try {
   postgres = await ensurePostgres();
   const testAdminUrl = postgres.urlFor('demold_test');
   await ensureDatabase(testAdminUrl);
-  const env = { ...process.env, NEXT_TELEMETRY_DISABLED: '1', TEST_DATABASE_URL: testAdminUrl };
+  const env = {
+    ...process.env,
+    NEXT_TELEMETRY_DISABLED: '1',
+    TEST_DATABASE_URL: testAdminUrl,
+    AUTH_SECRET: ensureAuthSecret(),
+  };
   const bin = (file) => path.join(root, 'node_modules', file);
 
   step('Lint (ESLint with the Next.js rules)');
@@ -72,6 +78,7 @@ try {
     ...env,
     DATABASE_URL: e2eUrl,
     APP_URL: 'http://127.0.0.1:3100',
+    NEXTAUTH_URL: 'http://127.0.0.1:3100',
     SMTP_URL: mail.smtpUrl,
     FAKE_INBOX_URL: mail.inboxUrl,
     DEMO_MODE: 'true',

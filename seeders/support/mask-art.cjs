@@ -8,20 +8,9 @@ const W = 1200;
 const H = 1500;
 const CX = W / 2;
 
-const DESIGNS = [
-  { slug: 'ibex', name: 'Ibex' },
-  { slug: 'hare', name: 'Hare' },
-  { slug: 'moth', name: 'Moth' },
-  { slug: 'boar', name: 'Boar' },
-  { slug: 'ram', name: 'Ram' },
-];
-
-const FINISHES = [
-  { slug: 'old-bone', name: 'Old Bone' },
-  { slug: 'bog-oak', name: 'Bog Oak' },
-  { slug: 'verdigris', name: 'Verdigris' },
-  { slug: 'soot-and-gilt', name: 'Soot & Gilt' },
-];
+const named = (pairs) => pairs.map(([slug, name]) => ({ slug, name }));
+const DESIGNS = named([['ibex', 'Ibex'], ['hare', 'Hare'], ['moth', 'Moth'], ['boar', 'Boar'], ['ram', 'Ram']]);
+const FINISHES = named([['old-bone', 'Old Bone'], ['bog-oak', 'Bog Oak'], ['verdigris', 'Verdigris'], ['soot-and-gilt', 'Soot & Gilt']]);
 
 // One paint treatment per finish. Every mask part is painted from the same
 // table, so a design never needs to know which finish it is wearing.
@@ -31,41 +20,35 @@ const FINISHES = [
 //   high:   what shows on rubbed high points (polish, sheen, bare copper)
 //   accent: stops of a banded gradient used for rims and ridges (gold leaf etc.)
 //   tip:    colour fading in towards horn / ear tips
-//   tex:    feTurbulence recipe; layers are [colour, gain, offset] so that
-//           alpha = gain * noise + offset picks the light or dark side of it
+//   tex:    which seeded surface texture (see TEXTURES) and its two inks
 const PALETTES = {
   'old-bone': {
-    base: ['#f7f0e0', '#e0cfac', '#a98e67'], wash: '#5b4a39', washAlpha: 0.6,
+    base: ['#f7f0e0', '#dfcdaa', '#a68a62'], wash: '#56463a', washAlpha: 0.72,
     side: '#9a8262', hole: '#241b14', high: '#fffcf4', highAlpha: 0.75,
     accent: ['#6f5840', '#98805f', '#5f4a35'], rimAlpha: 0.5, rimWidth: 4, ridgeAlpha: 0.55,
-    tip: '#7a5f42', tipAlpha: 0.75, strap: '#5b3f2b',
-    tex: { type: 'fractalNoise', freq: '0.014', oct: 3,
-      layers: [['#6a553e', -1.8, 0.8], ['#fffaf0', 1.8, -0.82]] },
+    tip: '#7a5f42', tipAlpha: 0.75,
+    tex: { kind: 'bone', dark: '#5e4a36', light: '#fffaf0' },
   },
   'bog-oak': {
     base: ['#6a4a34', '#3b281c', '#1a110b'], wash: '#080403', washAlpha: 0.7,
     side: '#24170f', hole: '#060302', high: '#d4a373', highAlpha: 0.32,
     accent: ['#1c110a', '#7a5238', '#2a1a10'], rimAlpha: 0.6, rimWidth: 3, ridgeAlpha: 0.8,
-    tip: '#140c07', tipAlpha: 0.5, strap: '#2a1d15',
-    // Strongly anisotropic turbulence: fast across, slow along = grain lines.
-    tex: { type: 'turbulence', freq: '0.045 0.0035', oct: 2,
-      layers: [['#0c0704', -4.5, 0.85], ['#8a6448', 3.2, -1.25]] },
+    tip: '#140c07', tipAlpha: 0.5,
+    tex: { kind: 'grain', dark: '#0b0604', light: '#9a7454' },
   },
   verdigris: {
     base: ['#9fd3bd', '#5c9f8b', '#2c6459'], wash: '#17352f', washAlpha: 0.6,
     side: '#7a4a2a', hole: '#0f1c1a', high: '#c27a45', highAlpha: 0.9,
     accent: ['#6b3519', '#c57a48', '#f0b889', '#93532c'], rimAlpha: 0.95, rimWidth: 6, ridgeAlpha: 0.9,
-    tip: '#b86d3c', tipAlpha: 0.9, strap: '#3b2a20',
-    tex: { type: 'fractalNoise', freq: '0.022', oct: 3,
-      layers: [['#cfeadb', 4, -2.2], ['#1d463e', -3.5, 1.55]] },
+    tip: '#b86d3c', tipAlpha: 0.9,
+    tex: { kind: 'crust', dark: '#173a33', light: '#b3dfcc' },
   },
   'soot-and-gilt': {
     base: ['#3a3633', '#1f1d1b', '#0c0b0a'], wash: '#000000', washAlpha: 0.6,
-    side: '#2a2724', hole: '#040404', high: '#8a8178', highAlpha: 0.25,
+    side: '#2a2724', hole: '#040404', high: '#8a8178', highAlpha: 0.35,
     accent: ['#6d4b15', '#c9a04a', '#fff0b5', '#b8892f', '#7a5518', '#e9c76e'],
-    rimAlpha: 1, rimWidth: 8, ridgeAlpha: 1, tip: '#e2bb5c', tipAlpha: 1, strap: '#141210',
-    tex: { type: 'fractalNoise', freq: '0.06', oct: 2,
-      layers: [['#5a534c', 1.8, -0.8], ['#000000', -1.8, 0.8]] },
+    rimAlpha: 1, rimWidth: 8, ridgeAlpha: 1, tip: '#e2bb5c', tipAlpha: 1,
+    tex: { kind: 'powder', dark: '#000000', light: '#6a625a' },
   },
 };
 
@@ -74,7 +57,7 @@ const PALETTES = {
 const f = (n) => Math.round(n * 10) / 10;
 const X = (s, dx) => CX + s * dx; // s = -1 left, +1 right: one code path for both sides
 
-function hash(str) { // FNV-1a, only used to seed the PRNG and feTurbulence
+function hash(str) { // FNV-1a, only used to seed the PRNG
   let h = 2166136261;
   for (const c of str) h = Math.imul(h ^ c.charCodeAt(0), 16777619);
   return h >>> 0;
@@ -149,16 +132,19 @@ function kit(pal, seed) {
 
   // Soft light and shadow are radial-gradient ellipses, not blurred shapes:
   // each librsvg filter costs a canvas-sized pass, and these appear by dozens.
+  // (Likewise fill-/stroke-opacity, never `opacity`, which forces an offscreen
+  // group per element.)
   const blob = (cx, cy, rx, ry, grad, a) =>
-    `<ellipse cx="${f(cx)}" cy="${f(cy)}" rx="${f(rx)}" ry="${f(ry)}" fill="url(#${grad})" opacity="${f(a * 100) / 100}"/>`;
+    `<ellipse cx="${f(cx)}" cy="${f(cy)}" rx="${f(rx)}" ry="${f(ry)}" fill="url(#${grad})" fill-opacity="${f(a * 100) / 100}"/>`;
   const hi = (cx, cy, rx, ry, a = 1) => blob(cx, cy, rx, ry, 'hiG', pal.highAlpha * a);
   const shade = (cx, cy, rx, ry, a = 1) => blob(cx, cy, rx, ry, 'shG', pal.washAlpha * a);
   const holes = []; // openings are re-stamped above the single texture pass
   const stroke = (d, w, paint = 'url(#acc)', a = pal.ridgeAlpha) =>
-    `<path d="${d}" fill="none" stroke="${paint}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round" opacity="${a}"/>`;
+    `<path d="${d}" fill="none" stroke="${paint}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round" stroke-opacity="${a}"/>`;
 
-  // A painted resin part: shared light gradient, the finish's surface texture,
-  // a recess wash, clipped modelling on top, then the rim where paint wears.
+  // A painted resin part: shared light gradient, a recess wash and clipped
+  // modelling on top, then the rim where the paint wears through. (Surface
+  // texture is one pass over all parts at the end, see maskSvg.)
   function mat(d, { inner = '', wash = true, rim = 1 } = {}) {
     shapes.push(d);
     const id = `c${uid++}`;
@@ -174,7 +160,7 @@ function kit(pal, seed) {
     const fr = frames(pts), last = fr[fr.length - 1].p, mid = fr[Math.round(tip * (fr.length - 1))].p;
     // Nested translucent bands fake a soft falloff without a blur filter.
     const band = (fill, a, shift, scales) => scales.map((sc) =>
-      `<path d="${tubeD(pts, wf, sc, shift)}" fill="${fill}" opacity="${f((a * 100) / scales.length) / 100}"/>`).join('');
+      `<path d="${tubeD(pts, wf, sc, shift)}" fill="${fill}" fill-opacity="${f((a * 100) / scales.length) / 100}"/>`).join('');
     let extra = band(pal.wash, pal.washAlpha * 1.2, 0.34, [0.5, 0.36, 0.22]) + band(pal.high, pal.highAlpha, -0.22, [0.3, 0.18, 0.08]);
     for (let j = 0; j < ridges; j++) {
       const i = Math.round((from + ((to - from) * j) / Math.max(1, ridges - 1)) * (fr.length - 1));
@@ -205,18 +191,10 @@ function kit(pal, seed) {
     return g(shade(cx, cy - h * 0.1, w * 0.8, h * 1.45, 1.1) + cut);
   }
   const hole = (svg) => { holes.push(svg); return svg; };
-  // The strap hint: where it's tied on at the temple, a short bend of it shows
-  // before it turns away behind the shell.
-  const back = [];
-  const strap = (dx, y) => both((s) => {
-    const d = `M${X(s, dx - 30)} ${y}C${X(s, dx + 30)} ${y - 6} ${X(s, dx + 52)} ${y + 30} ${X(s, dx + 38)} ${y + 70}Q${X(s, dx + 24)} ${y + 100} ${X(s, dx - 20)} ${y + 120}`;
-    back.push(stroke(d, 14, pal.strap, 1) + stroke(d, 3, '#fff', 0.14));
-    return '';
-  });
   const tipSpot = (cx, cy, r) => blob(cx, cy, r, r, 'tipG', pal.tipAlpha);
 
   const both = (fn) => fn(-1) + fn(1);
-  return { pal, rand, defs, shapes, holes, back, mat, tube, eye, hole, strap, tipSpot, hi, shade, stroke, both };
+  return { pal, rand, defs, shapes, holes, mat, tube, eye, hole, tipSpot, hi, shade, stroke, both };
 }
 
 // ---- the designs -----------------------------------------------------------
@@ -228,14 +206,16 @@ function ibex(k) {
     [525, 518, 445, 535, 410, 595], [378, 655, 384, 770, 405, 850],
     [428, 940, 500, 1055, 530, 1150], [546, 1198, 574, 1216, 600, 1216]]);
   const horn = (s) => bez([X(s, 58), 620], [X(s, 78), 390], [X(s, 150), 205], [X(s, 330), 128], 60);
-  const beard = 'M560 1190Q600 1205 640 1190Q636 1260 606 1318Q598 1290 586 1270Q566 1240 560 1190Z';
+  const beard = 'M564 1172Q600 1196 636 1172Q638 1260 606 1318Q598 1290 586 1270Q562 1240 564 1172Z';
   return [
-    k.strap(190, 800, 1318),
     k.both((s) => k.tube(bez([X(s, 150), 650], [X(s, 220), 600], [X(s, 290), 585], [X(s, 345), 610], 20),
-      (t) => 64 * Math.sin(Math.PI * (0.25 + 0.75 * t)) ** 0.7, { tip: 0.7 })),
+      (t) => 64 * Math.sin(Math.PI * (0.25 + 0.75 * t)) ** 0.7, { tip: 0.7, inner: k.shade(X(s, 270), 608, 60, 14, 1.2) })),
     k.both((s) => k.tube(horn(s), (t) => 96 * (1 - t) ** 0.85 + 10, { ridges: 17, to: 0.88, bulge: 0.3 })),
     k.mat(shell, { inner: k.hi(600, 610, 150, 45) + k.hi(600, 930, 34, 190, 0.8) +
       k.both((s) => k.shade(X(s, 75), 980, 40, 170, 0.55) + k.hi(X(s, 165), 880, 40, 60, 0.5)) }),
+    // carved planes: a brow ridge over each eye, the muzzle's flanks below
+    k.both((s) => k.hi(X(s, 120), 722, 70, 16, 0.8) + k.stroke(`M${X(s, 52)} 748Q${X(s, 118)} 708 ${X(s, 186)} 752`, 5) +
+      k.stroke(`M${X(s, 58)} 850Q${X(s, 62)} 980 ${X(s, 34)} 1100`, 3, k.pal.wash, 0.4)),
     k.both((s) => k.eye(X(s, 115), 790, 118, 50, s * -14)),
     k.stroke('M585 1150Q600 1162 615 1150', 4, 'url(#acc)'),
     k.both((s) => k.hole(k.stroke(`M${X(s, 22)} 1120Q${X(s, 30)} 1135 ${X(s, 20)} 1142`, 6, k.pal.hole, 0.85))),
@@ -245,28 +225,42 @@ function ibex(k) {
 
 function hare(k) {
   const shell = symPath([600, 545], [
-    [515, 542, 452, 575, 430, 645], [410, 712, 392, 800, 372, 880],
-    [352, 965, 368, 1060, 430, 1120], [490, 1170, 550, 1178, 600, 1176]]);
+    [515, 542, 455, 570, 438, 640], [422, 705, 420, 770, 394, 850],
+    [356, 950, 362, 1070, 440, 1128], [500, 1172, 550, 1180, 600, 1178]]);
   const ear = (t) => 132 * Math.sin(Math.PI * (0.14 + 0.86 * t)) ** 0.55;
   const ears = [bez([525, 640], [505, 400], [488, 220], [462, 70], 48),
     bez([675, 640], [702, 400], [735, 255], [860, 235], 48)]; // the right ear flops outward
-  const inner = (pts) => [0.56, 0.46, 0.34].map((sc) => `<path d="${tubeD(pts, ear, sc, 0.03)}" fill="${k.pal.wash}" opacity="${f(k.pal.washAlpha * 30) / 100}"/>`).join('');
+  const inner = (pts) => [0.56, 0.46, 0.34].map((sc) => `<path d="${tubeD(pts, ear, sc, 0.03)}" fill="${k.pal.wash}" fill-opacity="${f(k.pal.washAlpha * 40) / 100}"/>`).join('') +
+    k.stroke(tubeD(pts, ear, 0.58, 0.03), 3, 'url(#acc)', k.pal.rimAlpha * 0.6);
   return [
-    k.strap(215, 800, 1178),
     ears.map((pts) => k.tube(pts, ear, { tip: 0.7, inner: inner(pts) })).join(''),
     k.mat(shell, { inner: k.hi(600, 640, 110, 50) + k.both((s) => k.hi(X(s, 160), 950, 90, 80, 0.7) + k.shade(X(s, 95), 1110, 60, 50, 0.5)) }),
     k.both((s) => k.eye(X(s, 122), 790, 108, 56, s * -6)),
-    k.both((s) => k.mat(ell(X(s, 44), 1048, 54, 46), { inner: k.hi(X(s, 38), 1030, 26, 18) })),
-    k.mat('M566 982Q600 968 634 982Q620 1012 600 1018Q580 1012 566 982Z', { inner: `<rect x="500" y="900" width="200" height="200" fill="${k.pal.tip}" opacity="${k.pal.tipAlpha}"/>` }),
+    k.both((s) => k.mat(ell(X(s, 44), 1048, 54, 46), { inner: k.hi(X(s, 38), 1030, 30, 22), rim: 0.35 })),
+    k.mat('M566 982Q600 968 634 982Q620 1012 600 1018Q580 1012 566 982Z', { inner: `<rect x="500" y="900" width="200" height="200" fill="${k.pal.tip}" fill-opacity="${k.pal.tipAlpha}"/>` }),
     k.stroke('M600 1018L600 1046M600 1046Q588 1070 562 1068M600 1046Q612 1070 638 1068', 5, k.pal.hole, 0.8),
-    k.both((s) => [0, 1, 2].map((i) => `<circle cx="${X(s, 40 + i * 22)}" cy="${1040 + i * 8}" r="4" fill="${k.pal.hole}" opacity="0.6"/>`).join('')),
+    k.both((s) => [0, 1, 2].map((i) => `<circle cx="${X(s, 40 + i * 22)}" cy="${1040 + i * 8}" r="4" fill="${k.pal.hole}" fill-opacity="0.6"/>`).join('')),
   ].join('');
+}
+
+// Fur as rows of seeded, jittered teardrop tufts pointing away from (cx, cy)
+// along an elliptical arc; returns the tuft outlines and a hair-stroke path.
+function tufts(k, cx, cy, { r, len, w, n, a0 = 0, a1 = Math.PI, sx = 1.2, sy = 0.8 }) {
+  let d = '', hairs = '';
+  for (let i = 0; i < n; i++) {
+    const a = a0 + ((a1 - a0) * (i + 0.5)) / n + (k.rand() - 0.5) * 0.1, L = len * (0.75 + 0.5 * k.rand());
+    const u = [Math.cos(a) * sx, Math.sin(a) * sy], v = [-u[1], u[0]];
+    const b = [cx + u[0] * r, cy + u[1] * r], P = (du, dv) => `${f(b[0] + u[0] * du + v[0] * dv)} ${f(b[1] + u[1] * du + v[1] * dv)}`;
+    d += `M${P(0, w / 2)}Q${P(L * 0.7, w * 0.62)} ${P(L, 0)}Q${P(L * 0.7, -w * 0.62)} ${P(0, -w / 2)}Q${P(-w * 0.45, 0)} ${P(0, w / 2)}Z`;
+    hairs += `M${P(L * 0.15, w * 0.12)}L${P(L * 0.8, 0)}M${P(L * 0.1, -w * 0.25)}L${P(L * 0.6, -w * 0.12)}`;
+  }
+  return [d, hairs];
 }
 
 function moth(k) {
   const wings = symPath([600, 610], [
     [540, 566, 430, 452, 320, 448], [222, 444, 170, 512, 188, 600],
-    [206, 690, 282, 772, 362, 800], [420, 822, 446, 890, 472, 968], [502, 1044, 552, 1100, 600, 1108]]);
+    [206, 690, 282, 772, 362, 800], [420, 822, 446, 890, 472, 968], [502, 1044, 552, 1060, 600, 1060]]);
   const hindwing = (s) => `M${X(s, 60)} 860C${X(s, 160)} 790 ${X(s, 320)} 800 ${X(s, 335)} 900C${X(s, 345)} 990 ${X(s, 230)} 1060 ${X(s, 110)} 1020Z`;
   // Broad bipectinate antennae: a serrated feather blade combed with barbs.
   const antenna = (s) => {
@@ -278,35 +272,29 @@ function moth(k) {
     }).join('');
     return k.tube(pts, wf, { tip: 0.8, rim: 0.5, inner: k.stroke(barbs, 3) + k.stroke(poly(pts).slice(0, -1), 7) });
   };
-  // Furry collar: a crescent ruff under the chin whose outer edge is a row of
-  // jittered pointed tufts, combed with light and dark hairs.
-  const ruff = [], hairs = [];
-  const at = (a, r, cy = 1030) => [600 + Math.cos(a) * r * 1.15, cy + Math.sin(a) * r * 0.7];
-  for (let i = 0; i <= 40; i++) {
-    const a = Math.PI * (0.04 + (0.92 * i) / 40), r = 215 + (i % 2 ? -18 : 14 + k.rand() * 14);
-    ruff.push(at(a, r));
-  }
-  for (let i = 40; i >= 0; i--) ruff.push(at(Math.PI * (0.04 + (0.92 * i) / 40), 120, 1000));
-  for (let i = 0; i < 90; i++) {
-    const a = Math.PI * (0.06 + 0.88 * k.rand()), p0 = at(a, 110 + k.rand() * 40, 1000), p1 = at(a + (k.rand() - 0.5) * 0.08, 190 + k.rand() * 35);
-    hairs.push(`M${f(p0[0])} ${f(p0[1])}L${f(p1[0])} ${f(p1[1])}`);
-  }
-  const body = symPath([600, 560], [[560, 560, 538, 640, 536, 760], [534, 900, 556, 1040, 600, 1090]]);
+  // Fur is painted in rows, outermost first, so each row's rim reads as the
+  // shadowed edge of the row in front of it.
+  const fur = (rows) => rows.map(([cx, cy, o]) => {
+    const [d, hairs] = tufts(k, cx, cy, o);
+    return k.mat(d, { wash: false, rim: 0.25, inner: k.stroke(hairs, 2.5, k.pal.wash, 0.5) + k.shade(cx, cy, o.r * 1.2 + 20, o.r * 0.8 + 20, 0.6) });
+  }).join('');
   const veins = (s) => [[230, 520], [205, 630], [260, 740], [350, 790]].map(([x, y]) => `M${X(s, 90)} 700Q${X(s, (90 + 600 - x) / 2)} ${(700 + y) / 2 - 40} ${X(s, 600 - x)} ${y}`).join('');
   // Wing eye-spots are painted markings, so they get a pale centre rather
   // than a dark pupil: they must never be mistaken for the real eye holes.
   const ocellus = (s) => { const x = X(s, 300), y = 610;
-    return `<ellipse cx="${x}" cy="${y}" rx="64" ry="56" fill="url(#acc)" opacity="${k.pal.ridgeAlpha * 0.7}"/>` +
-      `<ellipse cx="${x}" cy="${y}" rx="46" ry="40" fill="${k.pal.wash}" opacity="${k.pal.washAlpha + 0.2}"/>` +
+    return `<ellipse cx="${x}" cy="${y}" rx="64" ry="56" fill="url(#acc)" fill-opacity="${k.pal.ridgeAlpha * 0.7}"/>` +
+      `<ellipse cx="${x}" cy="${y}" rx="46" ry="40" fill="${k.pal.wash}" fill-opacity="${k.pal.washAlpha + 0.2}"/>` +
       `<ellipse cx="${x + s * 4}" cy="${y - 4}" rx="22" ry="18" fill="url(#acc)"/>` + k.hi(x + s * 6, y - 8, 16, 12); };
   return [
-    k.strap(150, 780, 1232),
     k.both(antenna),
     k.both((s) => k.mat(hindwing(s), { inner: k.shade(X(s, 200), 930, 130, 90, 0.6) + k.stroke(`M${X(s, 80)} 880Q${X(s, 200)} 880 ${X(s, 300)} 930`, 3) })),
     k.mat(wings, { inner: k.hi(430, 560, 120, 60) + k.hi(770, 560, 120, 60) + k.both((s) => k.stroke(veins(s), 4) + ocellus(s)) }),
-    k.mat(body, { inner: k.hi(585, 700, 22, 110) + [0, 1, 2, 3].map((i) => k.stroke(`M545 ${860 + i * 40}Q600 ${880 + i * 40} 655 ${860 + i * 40}`, 3, k.pal.wash, 0.6)).join(''), rim: 0.6 }),
+    k.shade(600, 650, 70, 110, 0.5),
     k.both((s) => k.eye(X(s, 145), 720, 112, 58, s * -10)),
-    k.mat(poly(ruff), { rim: 0.5, inner: k.stroke(hairs.join(''), 3, k.pal.wash, 0.55) + k.stroke(hairs.slice(0, 45).join(''), 2, k.pal.high, k.pal.highAlpha * 0.6) + k.shade(600, 1000, 170, 40, 0.8) }),
+    fur([[600, 900, { r: 160, len: 110, w: 40, n: 28, a0: -0.08, a1: Math.PI + 0.08 }],
+      [600, 900, { r: 110, len: 100, w: 38, n: 22, a0: 0, a1: Math.PI }],
+      [600, 900, { r: 60, len: 90, w: 36, n: 16, a0: 0.1, a1: Math.PI - 0.1 }],
+      [600, 890, { r: 14, len: 80, w: 34, n: 9, a0: 0.25, a1: Math.PI - 0.25 }]]),
   ].join('');
 }
 
@@ -322,9 +310,8 @@ function boar(k) {
   const snout = symPath([600, 770], [[566, 770, 532, 790, 528, 850], [522, 930, 474, 990, 472, 1060], [470, 1130, 530, 1178, 600, 1178]]);
   const ear = (s) => `M${X(s, 160)} 560Q${X(s, 250)} 470 ${X(s, 345)} 405Q${X(s, 340)} 520 ${X(s, 262)} 640Z`;
   return [
-    k.strap(250, 760, 1180),
     k.mat(bristles.join(''), { wash: false, rim: 0.5, inner: k.stroke(bristles.join(''), 3, k.pal.wash, 0.6) }),
-    k.both((s) => k.mat(ear(s), { inner: `<path d="M${X(s, 200)} 570Q${X(s, 260)} 510 ${X(s, 318)} 450Q${X(s, 310)} 540 ${X(s, 262)} 610Z" fill="${k.pal.wash}" opacity="${k.pal.washAlpha * 0.8}"/>` })),
+    k.both((s) => k.mat(ear(s), { inner: `<path d="M${X(s, 200)} 570Q${X(s, 260)} 510 ${X(s, 318)} 450Q${X(s, 310)} 540 ${X(s, 262)} 610Z" fill="${k.pal.wash}" fill-opacity="${k.pal.washAlpha * 0.8}"/>` })),
     k.mat(shell, { inner: k.hi(600, 600, 170, 60) + k.both((s) => k.hi(X(s, 200), 880, 70, 90, 0.6) + k.shade(X(s, 150), 850, 50, 140, 0.6)) }),
     k.both((s) => k.shade(X(s, 120), 688, 80, 26, 0.9) + k.eye(X(s, 138), 730, 90, 38, s * -18)),
     k.both((s) => k.tube(bez([X(s, 118), 1110], [X(s, 205), 1135], [X(s, 262), 1060], [X(s, 258), 930], 30), (t) => 46 * (1 - t) + 5, { tip: 0.4, ridges: 0 })),
@@ -352,7 +339,6 @@ function ram(k) {
   const brow = symPath([600, 625], [[530, 590, 440, 590, 396, 648], [420, 720, 520, 690, 600, 712]]);
   const nose = symPath([600, 690], [[572, 690, 552, 740, 550, 820], [546, 930, 532, 1040, 542, 1130], [552, 1180, 578, 1190, 600, 1190]]);
   return [
-    k.strap(185, 820, 1230),
     k.mat(shell, { inner: k.both((s) => k.shade(X(s, 150), 930, 70, 180, 0.6)) }),
     k.mat(nose, { inner: k.hi(600, 900, 26, 220) + k.both((s) => k.shade(X(s, 55), 940, 22, 200, 0.7)), rim: 0.5 }),
     k.both((s) => k.eye(X(s, 128), 780, 108, 46, s * -12)),
@@ -365,9 +351,69 @@ function ram(k) {
 
 // Each design with the y of its lowest point, so every mask sits on the floor.
 const DRAW = {
-  ibex: [ibex, 1318], hare: [hare, 1178], moth: [moth, 1232], boar: [boar, 1180], ram: [ram, 1230],
+  ibex: [ibex, 1318], hare: [hare, 1178], moth: [moth, 1150], boar: [boar, 1180], ram: [ram, 1230],
 };
 const FLOOR = 1282;
+
+// ---- surface textures ------------------------------------------------------
+// Seeded vector marks, clipped to the mask. feTurbulence would look similar
+// but costs ~0.1 s per octave per full-size image; these cost a few ms.
+// Marks are scattered over the whole design box; the clip hides the misses.
+
+const dots = (rand, n, r0, r1) => {
+  let d = '';
+  for (let i = 0; i < n; i++) {
+    const x = 140 + rand() * 920, y = 60 + rand() * 1280, r = r0 + rand() * (r1 - r0);
+    d += `M${f(x - r)} ${f(y)}a${f(r)} ${f(r)} 0 1 0 ${f(2 * r)} 0a${f(r)} ${f(r)} 0 1 0 ${f(-2 * r)} 0`;
+  }
+  return d;
+};
+const spots = (rand, n, grad, [r0, r1], [a0, a1], at = () => [140 + rand() * 920, 60 + rand() * 1280]) =>
+  Array.from({ length: n }, () => {
+    const [x, y] = at(), r = r0 + rand() * (r1 - r0);
+    return `<ellipse cx="${f(x)}" cy="${f(y)}" rx="${f(r)}" ry="${f(r * (0.55 + rand() * 0.45))}" fill="url(#${grad})" fill-opacity="${f((a0 + rand() * (a1 - a0)) * 100) / 100}"/>`;
+  }).join('');
+
+const TEXTURES = {
+  // Old bone: blotches where the wash settled, fine specks, hairline crazing.
+  bone: (rand, t) => {
+    let craze = '';
+    for (let i = 0; i < 26; i++) {
+      let x = 140 + rand() * 920, y = 60 + rand() * 1280;
+      craze += `M${f(x)} ${f(y)}`;
+      for (let j = 0; j < 6; j++) { x += (rand() - 0.5) * 50; y += (rand() - 0.3) * 40; craze += `L${f(x)} ${f(y)}`; }
+    }
+    return spots(rand, 50, 'txD', [30, 120], [0.25, 0.55]) + spots(rand, 24, 'txL', [30, 90], [0.3, 0.6]) +
+      `<path d="${dots(rand, 260, 0.8, 2.6)}" fill="${t.dark}" fill-opacity="0.35"/>` +
+      `<path d="${craze}" fill="none" stroke="${t.dark}" stroke-width="1.3" stroke-opacity="0.3"/>`;
+  },
+  // Bog oak: long wavering grain lines down the block the mask was cut from.
+  grain: (rand, t) => {
+    let out = '';
+    for (let x = 140; x < 1060; x += 7 + rand() * 12) {
+      const ph = rand() * 6, ph2 = rand() * 6, amp = 6 + rand() * 12;
+      let d = '';
+      for (let y = 40; y <= 1360; y += 40) d += `${d ? 'L' : 'M'}${f(x + amp * Math.sin(y / 190 + ph) + 4 * Math.sin(y / 47 + ph2))} ${y}`;
+      const light = rand() < 0.22;
+      out += `<path d="${d}" fill="none" stroke="${light ? t.light : t.dark}" stroke-width="${f(1 + rand() * 2.6)}" stroke-opacity="${f((light ? 0.12 + rand() * 0.14 : 0.25 + rand() * 0.4) * 100) / 100}"/>`;
+    }
+    return out;
+  },
+  // Verdigris: clustered pale crust blooms over the green, and dark pitting.
+  crust: (rand, t) => {
+    let out = '';
+    for (let c = 0; c < 60; c++) {
+      const cx = 140 + rand() * 920, cy = 60 + rand() * 1280;
+      const near = () => [cx + (rand() + rand() - 1) * 60, cy + (rand() + rand() - 1) * 50];
+      out += spots(rand, 8, 'txL', [4, 18], [0.3, 0.7], near);
+    }
+    return spots(rand, 36, 'txD', [40, 110], [0.25, 0.5]) + out +
+      `<path d="${dots(rand, 420, 1, 3.2)}" fill="${t.dark}" fill-opacity="0.45"/><path d="${dots(rand, 300, 0.8, 2.2)}" fill="${t.light}" fill-opacity="0.45"/>`;
+  },
+  // Soot: a dry, powdery matte black; the faintest sheen in patches.
+  powder: (rand, t) => spots(rand, 18, 'txL', [40, 120], [0.06, 0.14]) + spots(rand, 18, 'txD', [40, 120], [0.2, 0.4]) +
+    `<path d="${dots(rand, 600, 0.7, 1.8)}" fill="${t.light}" fill-opacity="0.3"/>`,
+};
 
 // ---- the photograph --------------------------------------------------------
 
@@ -397,9 +443,6 @@ function maskSvg(designSlug, finishSlug, { width = 1200, height = 1500, view = '
   const depth = turned ? [30, 5] : [0, 9];
   const shapes = k.shapes.join('');
   const t = pal.tex;
-  const texLayers = t.layers.map(([c, g, o], i) =>
-    `<feColorMatrix in="n" type="matrix" values="0 0 0 0 0 0 0 0 0 0 0 0 0 0 0 ${g} 0 0 0 ${o}" result="a${i}"/>` +
-    `<feFlood flood-color="${c}"/><feComposite in2="a${i}" operator="in" result="l${i}"/>`).join('');
   const sx = turned ? 636 : 604;
 
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${W} ${H}" preserveAspectRatio="xMidYMid slice">` +
@@ -411,23 +454,19 @@ function maskSvg(designSlug, finishSlug, { width = 1200, height = 1500, view = '
     `<radialGradient id="wash" cx="0.48" cy="0.4" r="0.64"><stop offset="0.45" stop-color="${pal.wash}" stop-opacity="0"/><stop offset="0.8" stop-color="${pal.wash}" stop-opacity="${f(pal.washAlpha * 40) / 100}"/><stop offset="1" stop-color="${pal.wash}" stop-opacity="${pal.washAlpha}"/></radialGradient>` +
     `<radialGradient id="hole" cx="0.5" cy="0.7" r="0.7"><stop offset="0" stop-color="${pal.hole}"/><stop offset="1" stop-color="#000"/></radialGradient>` +
     `<linearGradient id="acc" gradientUnits="userSpaceOnUse" x1="0" y1="0" x2="190" y2="140" spreadMethod="reflect">${gradientStops(pal.accent)}</linearGradient>` +
-    softSpot('hiG', pal.high) + softSpot('shG', pal.wash) + softSpot('tipG', pal.tip) + softSpot('flG', '#2e271f') +
-    `<filter id="tex" x="0" y="0" width="1" height="1" color-interpolation-filters="sRGB"><feTurbulence type="${t.type}" baseFrequency="${t.freq}" numOctaves="${t.oct}" seed="${seed % 997}" stitchTiles="stitch" result="n"/>` +
-    `${texLayers}<feMerge result="m">${t.layers.map((_, i) => `<feMergeNode in="l${i}"/>`).join('')}</feMerge><feComposite in="m" in2="SourceAlpha" operator="in"/></filter>` +
-    // The noise is rendered once into a stitched tile and repeated: a fraction
-    // of the pixels of running the filter over the whole mask.
-    '<pattern id="texP" patternUnits="userSpaceOnUse" width="480" height="640"><rect width="480" height="640" filter="url(#tex)"/></pattern>' +
+    softSpot('hiG', pal.high) + softSpot('shG', pal.wash) + softSpot('tipG', pal.tip) + softSpot('flG', '#2e271f') + softSpot('txL', t.light) + softSpot('txD', t.dark) +
+    `<clipPath id="all"><path d="${shapes}"/></clipPath>` +
     k.defs.join('') +
     '</defs>' +
     `<rect width="${W}" height="${H}" fill="url(#bg)"/><rect y="1050" width="${W}" height="450" fill="url(#floor)"/>` +
-    `<ellipse cx="${sx}" cy="${FLOOR + 4}" rx="360" ry="52" fill="url(#flG)" opacity="0.45"/>` +
-    `<ellipse cx="${sx}" cy="${FLOOR}" rx="200" ry="20" fill="url(#flG)" opacity="0.6"/>` +
-    `<g transform="${pose}">${k.back.join('')}` +
-    // One blurred cast shadow and one texture pass over the union of all parts;
+    `<ellipse cx="${sx}" cy="${FLOOR + 4}" rx="360" ry="52" fill="url(#flG)" fill-opacity="0.45"/>` +
+    `<ellipse cx="${sx}" cy="${FLOOR}" rx="200" ry="20" fill="url(#flG)" fill-opacity="0.6"/>` +
+    `<g transform="${pose}">` +
+    // A soft cast shadow and one texture pass over the union of all parts;
     // openings are stamped again on top so the texture never fills them.
-    [36, 22, 10].map((w, i) => `<path d="${shapes}" transform="translate(${16 + i * 6} ${20 + i * 6})" fill="#3b342c" stroke="#3b342c" stroke-width="${w}" stroke-linejoin="round" opacity="0.07"/>`).join('') +
+    [36, 22, 10].map((w, i) => `<path d="${shapes}" transform="translate(${16 + i * 6} ${20 + i * 6})" fill="#3b342c" stroke="#3b342c" stroke-width="${w}" stroke-linejoin="round" fill-opacity="0.07" stroke-opacity="0.07"/>`).join('') +
     `<path d="${shapes}" transform="translate(${depth[0]} ${depth[1]})" fill="${pal.side}"/>` +
-    `${body}<path d="${shapes}" fill="url(#texP)"/>${k.holes.join('')}</g></svg>`;
+    `${body}<g clip-path="url(#all)">${TEXTURES[t.kind](k.rand, t)}</g>${k.holes.join('')}</g></svg>`;
 }
 
 module.exports = { DESIGNS, FINISHES, maskSvg };

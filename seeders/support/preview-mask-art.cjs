@@ -17,15 +17,18 @@ const VIEWS = ['front', 'three-quarter'];
   fs.mkdirSync(out, { recursive: true });
   const started = Date.now();
   const tiles = [];
+  let warnings = 0;
   for (const d of DESIGNS) for (const fin of FINISHES) for (const view of VIEWS) {
     const size = timing ? { width: 1200, height: 1500 } : { width: 480, height: 600 };
-    const img = sharp(Buffer.from(maskSvg(d.slug, fin.slug, { ...size, view })));
+    // failOn 'warning' + the event: a librsvg complaint about our SVG must be loud.
+    const img = sharp(Buffer.from(maskSvg(d.slug, fin.slug, { ...size, view })), { failOn: 'warning' })
+      .on('warning', (w) => { warnings += 1; console.warn(`${d.slug}/${fin.slug}/${view}: ${w}`); });
     const buf = await (timing ? img.webp({ quality: 82 }) : img.png()).toBuffer();
     if (timing) continue;
     fs.writeFileSync(path.join(out, `${d.slug}--${fin.slug}--${view}.png`), buf);
     tiles.push(buf);
   }
-  if (timing) return console.log(`rendered ${DESIGNS.length * FINISHES.length * VIEWS.length} WebP at 1200x1500 in ${Date.now() - started} ms`);
+  if (timing) return console.log(`rendered ${DESIGNS.length * FINISHES.length * VIEWS.length} WebP at 1200x1500 in ${Date.now() - started} ms, ${warnings} warning(s)`);
   // Rows are designs; columns are finishes, each as front + three-quarter.
   const tw = 240, th = 300, cols = FINISHES.length * VIEWS.length;
   const composites = await Promise.all(tiles.map(async (buf, i) => ({
@@ -33,5 +36,5 @@ const VIEWS = ['front', 'three-quarter'];
   })));
   await sharp({ create: { width: cols * tw, height: DESIGNS.length * th, channels: 3, background: '#ffffff' } })
     .composite(composites).png().toFile(path.join(out, 'sheet.png'));
-  console.log(`wrote ${tiles.length} previews and sheet.png to ${out} in ${Date.now() - started} ms`);
+  console.log(`wrote ${tiles.length} previews and sheet.png to ${out} in ${Date.now() - started} ms, ${warnings} warning(s)`);
 })().catch((e) => { console.error(e); process.exit(1); });
