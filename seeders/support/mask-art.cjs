@@ -161,7 +161,7 @@ function kit(pal, seed) {
     // Nested translucent bands fake a soft falloff without a blur filter.
     const band = (fill, a, shift, scales) => scales.map((sc) =>
       `<path d="${tubeD(pts, wf, sc, shift)}" fill="${fill}" fill-opacity="${f((a * 100) / scales.length) / 100}"/>`).join('');
-    let extra = band(pal.wash, pal.washAlpha * 1.2, 0.34, [0.5, 0.36, 0.22]) + band(pal.high, pal.highAlpha, -0.22, [0.3, 0.18, 0.08]);
+    let extra = band(pal.wash, pal.washAlpha * 1.2, 0.34, [0.52, 0.43, 0.34, 0.25, 0.16]) + band(pal.high, pal.highAlpha, -0.22, [0.3, 0.24, 0.18, 0.12, 0.06]);
     for (let j = 0; j < ridges; j++) {
       const i = Math.round((from + ((to - from) * j) / Math.max(1, ridges - 1)) * (fr.length - 1));
       const { p, t, n } = fr[i], w = wf(i / (fr.length - 1), i) / 2, b = w * 2 * bulge;
@@ -464,7 +464,7 @@ function maskSvg(designSlug, finishSlug, { width = 1200, height = 1500, view = '
     `<g transform="${pose}">` +
     // A soft cast shadow and one texture pass over the union of all parts;
     // openings are stamped again on top so the texture never fills them.
-    [36, 22, 10].map((w, i) => `<path d="${shapes}" transform="translate(${16 + i * 6} ${20 + i * 6})" fill="#3b342c" stroke="#3b342c" stroke-width="${w}" stroke-linejoin="round" fill-opacity="0.07" stroke-opacity="0.07"/>`).join('') +
+    [40, 28, 16, 6].map((w, i) => `<path d="${shapes}" transform="translate(${16 + i * 5} ${20 + i * 5})" fill="#3b342c" stroke="#3b342c" stroke-width="${w}" stroke-linejoin="round" fill-opacity="0.055" stroke-opacity="0.055"/>`).join('') +
     `<path d="${shapes}" transform="translate(${depth[0]} ${depth[1]})" fill="${pal.side}"/>` +
     `${body}<g clip-path="url(#all)">${TEXTURES[t.kind](k.rand, t)}</g>${k.holes.join('')}</g></svg>`;
 }

@@ -20,8 +20,12 @@ const VIEWS = ['front', 'three-quarter'];
   let warnings = 0;
   for (const d of DESIGNS) for (const fin of FINISHES) for (const view of VIEWS) {
     const size = timing ? { width: 1200, height: 1500 } : { width: 480, height: 600 };
+    const svg = maskSvg(d.slug, fin.slug, { ...size, view });
+    // librsvg silently ignores dangling url(#id) references, so check them here.
+    const ids = new Set([...svg.matchAll(/ id="([^"]+)"/g)].map((m) => m[1]));
+    for (const [, ref] of svg.matchAll(/url\(#([^)]+)\)/g)) if (!ids.has(ref)) { warnings += 1; console.warn(`${d.slug}/${fin.slug}/${view}: no #${ref}`); }
     // failOn 'warning' + the event: a librsvg complaint about our SVG must be loud.
-    const img = sharp(Buffer.from(maskSvg(d.slug, fin.slug, { ...size, view })), { failOn: 'warning' })
+    const img = sharp(Buffer.from(svg), { failOn: 'warning' })
       .on('warning', (w) => { warnings += 1; console.warn(`${d.slug}/${fin.slug}/${view}: ${w}`); });
     const buf = await (timing ? img.webp({ quality: 82 }) : img.png()).toBuffer();
     if (timing) continue;
