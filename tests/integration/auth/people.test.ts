@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { CurrentUser } from '@/lib/auth/session';
-import { useAppDatabase } from '../support/app-database';
+import { withAppDatabase } from '../support/app-database';
 
-useAppDatabase('people');
+withAppDatabase('people');
 
 async function person(email: string, role: CurrentUser['role']): Promise<CurrentUser> {
   const { getDb } = await import('@/lib/db/connection');

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { useAppDatabase } from '../support/app-database';
+import { withAppDatabase } from '../support/app-database';
 
-useAppDatabase('ratelimit');
+withAppDatabase('ratelimit');
 
 async function attempt(email: string, ip: string) {
   const { consumeSignInAllowance } = await import('@/lib/auth/rate-limit');

@@ -1,8 +1,8 @@
 import { randomBytes } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { useAppDatabase } from '../support/app-database';
+import { withAppDatabase } from '../support/app-database';
 
-useAppDatabase('links');
+withAppDatabase('links');
 
 async function newLink(email: string, expiresInMs = 15 * 60_000) {
   const { demoldAdapter } = await import('@/lib/auth/adapter');

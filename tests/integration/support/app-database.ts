@@ -5,7 +5,7 @@ import { createScratchDatabase, sequelizeCli, type ScratchDatabase } from './dat
  * Gives a test file its own migrated (and optionally seeded) database and points the app's own `lib/`
  * code at it, as the running app would be. Import app modules inside tests or hooks, after this runs.
  */
-export function useAppDatabase(label: string, { seed = false } = {}): { current: () => ScratchDatabase } {
+export function withAppDatabase(label: string, { seed = false } = {}): { current: () => ScratchDatabase } {
   let db: ScratchDatabase | undefined;
   beforeAll(async () => {
     db = await createScratchDatabase(label);

@@ -16,7 +16,7 @@ export function SignInForm({ callbackUrl, initialEmail }: { callbackUrl: string;
       <div role="status" className="rounded-sm border border-moss/40 bg-moss-wash p-6">
         <h2 className="text-2xl font-medium">Check your inbox</h2>
         <p className="mt-2 text-ink-soft">
-          We sent a sign-in link to <strong className="text-ink">{send.variables}</strong>. It works once, within the
+          We sent a sign-in link to <strong className="text-ink">{send.variables.trim().toLowerCase()}</strong>. It works once, within the
           next few minutes. Nothing there? Look in your spam folder.
         </p>
         <button type="button" onClick={() => send.reset()} className="mt-4 font-semibold underline underline-offset-4">

@@ -1,0 +1,54 @@
+import { expect, request as playwrightRequest, test } from '@playwright/test';
+import { hasRole, type Role } from '@/lib/auth/roles';
+import { pageRules, routeRules, type Access } from '../fixtures/access-rules';
+import { signInAs } from './support/auth';
+
+// The role matrix over real HTTP: every page and route handler, as anonymous, buyer, studio hand and maker.
+const callers: (Role | 'anonymous')[] = ['anonymous', 'customer', 'staff', 'owner'];
+const allowed = (access: Access, caller: Role | 'anonymous') =>
+  access === 'public' || (caller !== 'anonymous' && hasRole(caller, access));
+
+// A request the route answers without side effects, for each route handler and method.
+const routeProbes: Record<string, Record<string, { path: string; expect: number; body?: object }>> = {
+  '/api/health': { GET: { path: '/api/health', expect: 200 } },
+  '/api/auth/[...nextauth]': {
+    GET: { path: '/api/auth/csrf', expect: 200 },
+    POST: { path: '/api/auth/signin/email', expect: 400, body: { email: 'not-an-address' } },
+  },
+  '/api/auth/demo': { POST: { path: '/api/auth/demo', expect: 422, body: { email: 'stranger@example.com' } } },
+};
+
+test.describe('who may open what', () => {
+  for (const caller of callers) {
+    test(`as ${caller}`, async ({ baseURL }, testInfo) => {
+      test.skip(testInfo.project.name !== 'desktop', 'one pass is enough: access does not depend on the screen');
+      const request = await playwrightRequest.newContext({ baseURL });
+      if (caller !== 'anonymous') await signInAs(request, caller);
+
+      for (const [pattern, rule] of Object.entries(pageRules)) {
+        const response = await request.get(rule.example ?? pattern, { maxRedirects: 0 });
+        const expected = allowed(rule.access, caller) ? 200 : caller === 'anonymous' ? 307 : 403;
+        // The sign-in page sends someone already signed in on to their account.
+        const status = pattern === '/sign-in' && caller !== 'anonymous' && response.status() === 307 ? 200 : response.status();
+        expect(status, `${caller} GET ${pattern}`).toBe(expected);
+        if (expected === 307) expect(response.headers().location).toContain('/sign-in?callbackUrl=');
+      }
+
+      for (const [pattern, methods] of Object.entries(routeRules)) {
+        for (const [method, access] of Object.entries(methods)) {
+          const probe = routeProbes[pattern]?.[method];
+          expect(probe, `a probe for ${method} ${pattern}`).toBeDefined();
+          const response = await request.fetch(probe!.path, { method, form: probe!.body as Record<string, string> | undefined, maxRedirects: 0 });
+          const expected = allowed(access, caller) ? probe!.expect : caller === 'anonymous' ? 401 : 403;
+          expect(response.status(), `${caller} ${method} ${pattern}`).toBe(expected);
+          if (response.status() >= 400) {
+            const body = await response.json();
+            expect(body.error.code).toMatch(/^[a-z_]+$/);
+            expect(body.error.message.length).toBeGreaterThan(10);
+          }
+        }
+      }
+      await request.dispose();
+    });
+  }
+});
