@@ -31,6 +31,8 @@ export default defineConfig({
   projects: [
     {
       name: 'phone',
+      // Access rules do not depend on the screen: the matrix runs once, on the desktop project.
+      testIgnore: /access\.spec\.ts/,
       use: {
         ...devices['Pixel 7'],
         browserName: 'chromium',
