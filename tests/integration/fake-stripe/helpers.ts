@@ -1,6 +1,7 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
+import { afterEach, beforeEach } from 'vitest';
 import {
   type FakeStripe,
   type FakeStripeOptions,
@@ -180,4 +181,25 @@ export async function stripeError(promise: Promise<unknown>): Promise<Stripe.err
     throw e;
   }
   throw new Error('expected the Stripe call to fail, but it succeeded');
+}
+
+export type StartedFake = { fake: FakeStripe; receiver: Receiver; stripe: Stripe };
+
+/**
+ * A fresh fake and webhook receiver for every test, closed afterwards; `use` hands them to the test
+ * file's own variables.
+ */
+export function withFakeStripe(use: (started: StartedFake) => void): void {
+  let started: StartedFake | undefined;
+  beforeEach(async () => {
+    const receiver = await startReceiver();
+    const fake = await startFake({ webhookUrl: receiver.url, webhookSecret: WEBHOOK_SECRET });
+    started = { fake, receiver, stripe: sdk(fake) };
+    use(started);
+  });
+  afterEach(async () => {
+    await started?.fake.close();
+    await started?.receiver.close();
+    started = undefined;
+  });
 }

@@ -1,32 +1,13 @@
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type Stripe from 'stripe';
 import type { FakeStripe } from '../../../fake-services/stripe/server';
-import {
-  control,
-  maskOrder,
-  ORDER_SUBTOTAL,
-  payByControl,
-  type Receiver,
-  sdk,
-  startFake,
-  startReceiver,
-  WEBHOOK_SECRET,
-} from './helpers';
+import { control, maskOrder, ORDER_SUBTOTAL, payByControl, type Receiver, withFakeStripe } from './helpers';
 
 let fake: FakeStripe;
 let receiver: Receiver;
 let stripe: Stripe;
 
-beforeEach(async () => {
-  receiver = await startReceiver();
-  fake = await startFake({ webhookUrl: receiver.url, webhookSecret: WEBHOOK_SECRET });
-  stripe = sdk(fake);
-});
-
-afterEach(async () => {
-  await fake.close();
-  await receiver.close();
-});
+withFakeStripe((started) => ({ fake, receiver, stripe } = started));
 
 const expiryYear = new Date().getUTCFullYear() + 2;
 

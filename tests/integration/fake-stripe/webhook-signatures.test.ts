@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import Stripe from 'stripe';
 import type { FakeStripe } from '../../../fake-services/stripe/server';
 import {
@@ -6,26 +6,16 @@ import {
   maskOrder,
   payByControl,
   type Receiver,
-  sdk,
-  startFake,
   startReceiver,
   WEBHOOK_SECRET,
+  withFakeStripe,
 } from './helpers';
 
 let fake: FakeStripe;
 let receiver: Receiver;
 let stripe: Stripe;
 
-beforeEach(async () => {
-  receiver = await startReceiver();
-  fake = await startFake({ webhookUrl: receiver.url, webhookSecret: WEBHOOK_SECRET });
-  stripe = sdk(fake);
-});
-
-afterEach(async () => {
-  await fake.close();
-  await receiver.close();
-});
+withFakeStripe((started) => ({ fake, receiver, stripe } = started));
 
 describe('webhook signatures', () => {
   it("verify with the SDK's own constructEvent, and a tampered body or another secret is refused", async () => {
