@@ -31,8 +31,8 @@ export default defineConfig({
   projects: [
     {
       name: 'phone',
-      // Access rules do not depend on the screen: the matrix runs once, on the desktop project.
-      testIgnore: /access\.spec\.ts/,
+      // Access rules and the hold race do not depend on the screen: they run once, on the desktop project.
+      testIgnore: /(access|race)\.spec\.ts/,
       use: {
         ...devices['Pixel 7'],
         browserName: 'chromium',

@@ -33,6 +33,10 @@ export const envSchema = z.object({
   AUTH_SECRET: z
     .string({ error: 'AUTH_SECRET is not set: `npm run demo` makes one; elsewhere generate one with `openssl rand -base64 32`' })
     .min(32, 'AUTH_SECRET must be at least 32 characters: generate one with `openssl rand -base64 32`'),
+  JOBS_ENABLED: z
+    .enum(['true', 'false', '1', '0', ''])
+    .default('true')
+    .transform((value) => value !== 'false' && value !== '0'),
   SIGN_IN_LINK_MINUTES: z.coerce.number().int().min(5).max(24 * 60).default(15),
 });
 

@@ -30,6 +30,8 @@ export class Design extends Model<InferAttributes<Design>, InferCreationAttribut
   declare heightMm: number | null;
   declare depthMm: number | null;
   declare weightG: number | null;
+  declare eyeOpeningWidthMm: CreationOptional<number | null>;
+  declare eyeSpacingMm: CreationOptional<number | null>;
   declare materials: CreationOptional<string>;
   declare care: CreationOptional<string>;
   declare position: CreationOptional<number>;
@@ -56,6 +58,8 @@ export class Design extends Model<InferAttributes<Design>, InferCreationAttribut
         heightMm: { type: DataTypes.INTEGER, allowNull: true },
         depthMm: { type: DataTypes.INTEGER, allowNull: true },
         weightG: { type: DataTypes.INTEGER, allowNull: true },
+        eyeOpeningWidthMm: { type: DataTypes.INTEGER, allowNull: true },
+        eyeSpacingMm: { type: DataTypes.INTEGER, allowNull: true },
         materials: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         care: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         position: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

@@ -4,12 +4,14 @@ import { Finish } from './finish';
 import { Photo } from './photo';
 import { Studio } from './studio';
 import { Account } from './account';
+import { Batch } from './batch';
 import { AuthSession } from './auth-session';
 import { User } from './user';
 import { VerificationToken } from './verification-token';
 
-export { Account, AuthSession, Design, Finish, Photo, Studio, User, VerificationToken };
+export { Account, AuthSession, Batch, Design, Finish, Photo, Studio, User, VerificationToken };
 export { designStatuses, type DesignStatus } from './design';
+export { batchStatuses, type BatchStatus } from './batch';
 
 /** Binds every model to one connection and declares how they relate. Call once per Sequelize instance. */
 export function initModels(sequelize: Sequelize) {
@@ -21,6 +23,7 @@ export function initModels(sequelize: Sequelize) {
   Account.initModel(sequelize);
   AuthSession.initModel(sequelize);
   VerificationToken.initModel(sequelize);
+  Batch.initModel(sequelize);
 
   Studio.hasMany(Design, { foreignKey: 'studioId', as: 'designs' });
   Design.belongsTo(Studio, { foreignKey: 'studioId', as: 'studio' });
@@ -36,7 +39,10 @@ export function initModels(sequelize: Sequelize) {
   User.hasMany(AuthSession, { foreignKey: 'userId', as: 'sessions' });
   AuthSession.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 
-  return { Studio, Design, Finish, Photo, User, Account, AuthSession, VerificationToken };
+  Design.hasMany(Batch, { foreignKey: 'designId', as: 'batches' });
+  Batch.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+
+  return { Studio, Design, Finish, Photo, User, Account, AuthSession, VerificationToken, Batch };
 }
 
 export type Models = ReturnType<typeof initModels>;

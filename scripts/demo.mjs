@@ -50,6 +50,9 @@ try {
   sequelizeCli(databaseUrl, ['db:seed:all']);
   // The photos are files, not rows: make sure they exist even when the rows were seeded earlier.
   run(process.execPath, ['seeders/support/render-demo-art.cjs']);
+  run(process.execPath, ['seeders/support/retime-demo-drops.cjs'], { env: { ...process.env, DATABASE_URL: databaseUrl } });
+  // Cached drop pages from an earlier run would still show the old opening time.
+  fs.rmSync(path.join(root, '.next/cache/fetch-cache'), { recursive: true, force: true });
 
   step('Starting the fake mail inbox');
   const mail = await startFakeMail({ smtpPort, webPort: inboxPort });

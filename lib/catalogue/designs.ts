@@ -70,7 +70,14 @@ export type DesignDetail = {
   story: string;
   materials: string;
   care: string;
-  fit: { widthMm: number | null; heightMm: number | null; depthMm: number | null; weightG: number | null };
+  fit: {
+    widthMm: number | null;
+    heightMm: number | null;
+    depthMm: number | null;
+    weightG: number | null;
+    eyeOpeningWidthMm: number | null;
+    eyeSpacingMm: number | null;
+  };
   finishes: FinishView[];
   studio: StudioView;
 };
@@ -105,7 +112,14 @@ export async function getPublishedDesignBySlug(slug: string): Promise<DesignDeta
     story: design.story,
     materials: design.materials,
     care: design.care,
-    fit: { widthMm: design.widthMm, heightMm: design.heightMm, depthMm: design.depthMm, weightG: design.weightG },
+    fit: {
+      widthMm: design.widthMm,
+      heightMm: design.heightMm,
+      depthMm: design.depthMm,
+      weightG: design.weightG,
+      eyeOpeningWidthMm: design.eyeOpeningWidthMm ?? null,
+      eyeSpacingMm: design.eyeSpacingMm ?? null,
+    },
     studio: { slug: studio.slug, name: studio.name, timeZone: studio.timeZone, currency: studio.currency },
     finishes: (design.finishes ?? []).map((finish) => ({
       slug: finish.slug,

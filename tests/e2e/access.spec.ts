@@ -2,6 +2,7 @@ import { expect, request as playwrightRequest, test } from '@playwright/test';
 import { hasRole, type Role } from '@/lib/auth/roles';
 import { pageRules, routeRules, type Access } from '../fixtures/access-rules';
 import { signInAs } from './support/auth';
+import { withDb } from './support/db';
 
 // The role matrix over real HTTP: every page and route handler, as anonymous, buyer, studio hand and maker.
 const callers: (Role | 'anonymous')[] = ['anonymous', 'customer', 'staff', 'owner'];
@@ -16,16 +17,23 @@ const routeProbes: Record<string, Record<string, { path: string; expect: number;
     POST: { path: '/api/auth/signin/email', expect: 400, body: { email: 'not-an-address' } },
   },
   '/api/auth/demo': { POST: { path: '/api/auth/demo', expect: 422, body: { email: 'stranger@example.com' } } },
+  '/api/drops/[batchId]/availability': {
+    GET: { path: '/api/drops/00000000-0000-4000-8000-000000000000/availability', expect: 404 },
+  },
+  '/api/holds': { POST: { path: '/api/holds', expect: 400, body: { batchId: 'not-a-uuid' } } },
+  '/api/holds/[id]': { DELETE: { path: '/api/holds/00000000-0000-4000-8000-000000000000', expect: 404 } },
+  '/api/holds/mine': { GET: { path: '/api/holds/mine', expect: 200 } },
 };
 
 test.describe('who may open what', () => {
   for (const caller of callers) {
     test(`as ${caller}`, async ({ baseURL }) => {
       const request = await playwrightRequest.newContext({ baseURL });
+      const openBatch = await withDb(async (db) => (await db.query(`SELECT id FROM batches WHERE name = 'Winter batch'`)).rows[0].id as string);
       if (caller !== 'anonymous') await signInAs(request, caller);
 
       for (const [pattern, rule] of Object.entries(pageRules)) {
-        const response = await request.get(rule.example ?? pattern, { maxRedirects: 0 });
+        const response = await request.get((rule.example ?? pattern).replace(':open-batch', openBatch), { maxRedirects: 0 });
         const expected = allowed(rule.access, caller) ? 200 : caller === 'anonymous' ? 307 : 403;
         // The sign-in page sends someone already signed in on to their account.
         const status = pattern === '/sign-in' && caller !== 'anonymous' && response.status() === 307 ? 200 : response.status();

@@ -35,7 +35,7 @@ export function findRouteHandlers(): { pattern: string; methods: string[] }[] {
     .filter((file) => /\/route\.ts$/.test(file))
     .map((file) => {
       const source = fs.readFileSync(file, 'utf8');
-      const methods = [...source.matchAll(/export (?:async )?function (GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1]!);
+      const methods = [...source.matchAll(/export (?:(?:async )?function|const) (GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1]!);
       return { pattern: urlPattern(file), methods: methods.sort() };
     })
     .sort((a, b) => a.pattern.localeCompare(b.pattern));

@@ -1,11 +1,17 @@
 import { connection } from 'next/server';
-import { listDesignsForHome } from '@/lib/catalogue/designs';
+import { listDesignsForHomeCached as listDesignsForHome } from '@/lib/catalogue/cached';
+import { requestTime } from '@/lib/clock';
+import { listDrops } from '@/lib/drops/catalogue';
 import { DesignCard } from './_components/design-card';
+import { DropsStrip } from './_components/drops-strip';
 
 export default async function HomePage() {
-  // Stock and catalogue change by the minute: always read them at request time.
+  // Rendered per request (the countdowns follow the clock), from cached catalogue reads.
   await connection();
-  const { studio, designs } = await listDesignsForHome();
+  const [{ studio, designs }, drops] = await Promise.all([listDesignsForHome(), listDrops()]);
+  const now = requestTime();
+  const open = drops.filter((d) => new Date(d.earlyAccessAt ?? d.opensAt).getTime() <= now && new Date(d.closesAt).getTime() > now);
+  const next = drops.find((d) => new Date(d.earlyAccessAt ?? d.opensAt).getTime() > now);
 
   return (
     <>
@@ -21,6 +27,8 @@ export default async function HomePage() {
           you choose. Batches are small, so they open at an announced time.
         </p>
       </section>
+
+      <DropsStrip next={next} open={open} now={now} />
 
       <section id="designs" aria-labelledby="designs-title" className="scroll-mt-8">
         <h2 id="designs-title" className="text-3xl font-medium">

@@ -22,7 +22,7 @@ describe('sign-in e-mail limits', () => {
     const refused = await attempt('flood@example.com', '198.51.100.200');
     expect(refused).toMatchObject({ status: 429, code: 'rate_limited' });
     if (typeof refused !== 'string') {
-      expect(refused.message).toMatch(/ask again in \d+ minutes?/);
+      expect(refused.message).toMatch(/try again in \d+ minutes/);
       expect(refused.retryAfterSeconds).toBeGreaterThan(0);
       expect(refused.retryAfterSeconds).toBeLessThanOrEqual(SIGN_IN_LIMITS.perAddress.duration);
     }

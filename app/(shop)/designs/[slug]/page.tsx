@@ -5,8 +5,11 @@ import { notFound } from 'next/navigation';
 import { connection } from 'next/server';
 import { cache } from 'react';
 import { Price } from '@/components/ui/price';
-import { getPublishedDesignBySlug } from '@/lib/catalogue/designs';
+import { getPublishedDesignBySlugCached as getPublishedDesignBySlug } from '@/lib/catalogue/cached';
+import { requestTime } from '@/lib/clock';
+import { listDrops } from '@/lib/drops/catalogue';
 import { designPageParamsSchema, designPageSearchSchema } from '@/lib/catalogue/schemas';
+import { BatchList } from './_components/batch-list';
 import { FitTable } from './_components/fit-table';
 
 type Props = {
@@ -97,6 +100,8 @@ export default async function DesignPage({ params, searchParams }: Props) {
           </h2>
           <p className="mt-2 text-ink-soft">{design.story}</p>
         </section>
+
+        <BatchList batches={(await listDrops()).filter((d) => d.designSlug === design.slug)} now={requestTime()} />
 
         <FitTable fit={design.fit} />
 

@@ -5,6 +5,8 @@ const rows: { key: keyof DesignDetail['fit']; label: string; unit: string }[] = 
   { key: 'heightMm', label: 'Height', unit: 'mm' },
   { key: 'depthMm', label: 'Depth', unit: 'mm' },
   { key: 'weightG', label: 'Weight', unit: 'g' },
+  { key: 'eyeOpeningWidthMm', label: 'Eye openings', unit: 'mm wide' },
+  { key: 'eyeSpacingMm', label: 'Eye centres', unit: 'mm apart' },
 ];
 
 export function FitTable({ fit }: { fit: DesignDetail['fit'] }) {
@@ -15,7 +17,7 @@ export function FitTable({ fit }: { fit: DesignDetail['fit'] }) {
       <h2 id="fit-title" className="text-2xl font-medium">
         Fit
       </h2>
-      <dl className="mt-3 grid grid-cols-2 gap-x-6 gap-y-2 sm:grid-cols-4">
+      <dl className="mt-3 grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-3">
         {known.map((row) => (
           <div key={row.key}>
             <dt className="text-sm text-ink-faint">{row.label}</dt>
