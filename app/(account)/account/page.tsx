@@ -1,14 +1,17 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { SignOutButton } from '@/components/auth/sign-out-button';
+import { LocalTime } from '@/components/local-time';
 import { requirePageUser } from '@/lib/auth/authorize';
 import { hasRole, roleLabels } from '@/lib/auth/roles';
+import { listMyActiveHolds } from '@/lib/drops/holds';
 import { NameForm } from './_components/name-form';
 
 export const metadata: Metadata = { title: 'Your account' };
 
 export default async function AccountPage() {
   const user = await requirePageUser('/account');
+  const holds = await listMyActiveHolds(user);
   return (
     <>
       <h1 className="text-4xl font-medium">Your account</h1>
@@ -20,6 +23,29 @@ export default async function AccountPage() {
       <div className="mt-8">
         <NameForm name={user.name} />
       </div>
+      <section className="mt-10" aria-labelledby="holds-title">
+        <h2 id="holds-title" className="text-2xl font-medium">
+          Held for you
+        </h2>
+        {holds.length === 0 ? (
+          <p className="mt-2 text-ink-soft">Nothing is held for you right now.</p>
+        ) : (
+          <ul className="mt-3 grid gap-2">
+            {holds.map((hold) => (
+              <li key={hold.id}>
+                <Link href={`/drops/${hold.batchId}`} className="flex justify-between gap-3 rounded-sm border border-ember px-4 py-3">
+                  <span className="font-semibold">
+                    {hold.quantity} × {hold.designName}, {hold.finishName}
+                  </span>
+                  <span className="text-sm text-ink-soft">
+                    until <LocalTime at={hold.expiresAt} />
+                  </span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
       <section className="mt-10" aria-labelledby="orders-title">
         <h2 id="orders-title" className="text-2xl font-medium">
           Orders and waitlists
