@@ -3,7 +3,7 @@ import { cookies } from 'next/headers';
 import { cache } from 'react';
 import { getDb } from '@/lib/db/connection';
 import type { Role } from './roles';
-import { demoldAdapter } from './adapter';
+import { QueryTypes } from 'sequelize';
 import { sessionCookieName } from './options';
 
 export type CurrentUser = { id: string; email: string; name: string | null; role: Role };
@@ -15,9 +15,11 @@ export type CurrentUser = { id: string; email: string; name: string | null; role
 export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
   const token = (await cookies()).get(sessionCookieName())?.value;
   if (!token || token.length > 200) return null;
-  getDb();
-  const found = await demoldAdapter().getSessionAndUser!(token);
-  if (!found) return null;
-  const user = found.user as CurrentUser & { emailVerified: Date | null };
-  return { id: user.id, email: user.email, name: user.name ?? null, role: user.role };
+  // Plain SQL on purpose: this runs on every signed-in request, the hold route's included.
+  const [user] = await getDb().sequelize.query<CurrentUser>(
+    `SELECT u.id, u.email, u.name, u.role FROM sessions s JOIN users u ON u.id = s.user_id
+      WHERE s.session_token = $1 AND s.expires > now()`,
+    { bind: [token], type: QueryTypes.SELECT },
+  );
+  return user ?? null;
 });
