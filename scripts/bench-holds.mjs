@@ -11,6 +11,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ensureDependencies } from './lib/deps.mjs';
+import { stopIfStartedHere } from './lib/postgres.mjs';
 import { startLoad, stopService, watchLog } from './lib/bench-app.mjs';
 import { openRaw } from './lib/bench-raw.mjs';
 import { checkBatch, createBatch, createBuyers } from './lib/bench-seed.mjs';
@@ -145,13 +146,7 @@ async function shutdown(code) {
   if (stopping) return;
   stopping = true;
   await Promise.all(services.map(stopService));
-  if (postgres?.startedHere) {
-    try {
-      postgres.stop();
-    } catch (error) {
-      console.error(`PostgreSQL did not stop cleanly: ${error.message}`);
-    }
-  }
+  stopIfStartedHere(postgres);
   process.exit(code);
 }
 

@@ -4,6 +4,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies } from './lib/deps.mjs';
+import { stopIfStartedHere } from './lib/postgres.mjs';
 import { root, run, startService, step, waitForHttp } from './lib/run.mjs';
 import { ensureAuthSecret } from './lib/secrets.mjs';
 
@@ -23,13 +24,7 @@ async function shutdown(code) {
   stopping = true;
   console.log('\nStopping the demo…');
   for (const service of services.reverse()) service.stop();
-  if (postgres?.startedHere) {
-    try {
-      postgres.stop();
-    } catch (error) {
-      console.error(`PostgreSQL did not stop cleanly: ${error.message}`);
-    }
-  }
+  stopIfStartedHere(postgres);
   process.exit(code);
 }
 process.on('SIGINT', () => shutdown(0));

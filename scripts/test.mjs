@@ -5,6 +5,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies } from './lib/deps.mjs';
+import { stopIfStartedHere } from './lib/postgres.mjs';
 import { aptInstall, root, runStatus, step } from './lib/run.mjs';
 import { ensureAuthSecret } from './lib/secrets.mjs';
 
@@ -116,12 +117,6 @@ try {
   exitCode = 1;
 } finally {
   for (const service of services) service.stop();
-  if (postgres?.startedHere) {
-    try {
-      postgres.stop();
-    } catch (error) {
-      console.error(`PostgreSQL did not stop cleanly: ${error.message}`);
-    }
-  }
+  stopIfStartedHere(postgres);
 }
 process.exit(exitCode);

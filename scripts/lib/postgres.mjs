@@ -191,3 +191,13 @@ export function sequelizeCli(url, args) {
     env: { ...process.env, DATABASE_URL: url },
   });
 }
+
+/** Stops the server only when `ensurePostgres` started it in this run; a found one is left running. */
+export function stopIfStartedHere(postgres) {
+  if (!postgres?.startedHere) return;
+  try {
+    postgres.stop();
+  } catch (error) {
+    console.error(`PostgreSQL did not stop cleanly: ${error instanceof Error ? error.message : error}`);
+  }
+}
