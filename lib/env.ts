@@ -38,6 +38,18 @@ export const envSchema = z.object({
     .default('true')
     .transform((value) => value !== 'false' && value !== '0'),
   SIGN_IN_LINK_MINUTES: z.coerce.number().int().min(5).max(24 * 60).default(15),
+  // Payments. Unset, checkout answers 503 "payments are not set up"; the demo and tests set test keys.
+  STRIPE_SECRET_KEY: z
+    .string()
+    .regex(/^(sk|rk)_(test|live)_[A-Za-z0-9_]{8,}$/, { message: 'STRIPE_SECRET_KEY must be a Stripe secret key (sk_test_… or sk_live_…)' })
+    .optional(),
+  STRIPE_WEBHOOK_SECRET: z
+    .string()
+    .regex(/^whsec_[A-Za-z0-9_]{8,}$/, { message: 'STRIPE_WEBHOOK_SECRET must be the endpoint secret Stripe shows (whsec_…)' })
+    .optional(),
+  // Only for the local fake: the SDK is pointed at it by host, port and protocol. Unset means Stripe itself.
+  STRIPE_API_URL: z.url({ message: 'STRIPE_API_URL must be an absolute URL such as http://127.0.0.1:12111' }).optional(),
+  STRIPE_TIMEOUT_MS: z.coerce.number().int().min(1_000).max(80_000).default(20_000),
 });
 
 export type Env = z.infer<typeof envSchema>;

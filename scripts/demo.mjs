@@ -14,6 +14,7 @@ const skipBuild = args.has('--no-build') && fs.existsSync(path.join(root, '.next
 const port = Number(process.env.PORT ?? 3000);
 const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 1025);
 const inboxPort = Number(process.env.FAKE_INBOX_PORT ?? 1080);
+const stripePort = Number(process.env.FAKE_STRIPE_PORT ?? 12111);
 
 const services = [];
 let postgres;
@@ -35,6 +36,7 @@ try {
   // Only now may modules that need the dependencies be loaded.
   const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
   const { startFakeMail } = await import('../fake-services/mail/index.mjs');
+  const { startFakeStripeService } = await import('../fake-services/stripe/index.mjs');
 
   postgres = await ensurePostgres();
   const databaseUrl = postgres.urlFor(process.env.DEMOLD_DB_NAME ?? 'demold');
@@ -54,6 +56,9 @@ try {
   services.push(mail.service);
 
   const appUrl = `http://127.0.0.1:${port}`;
+  step('Starting the fake Stripe');
+  const stripe = await startFakeStripeService({ port: stripePort, webhookUrl: `${appUrl}/api/webhooks/stripe` });
+  services.push(stripe.service);
   const env = {
     ...process.env,
     DATABASE_URL: databaseUrl,
@@ -61,6 +66,9 @@ try {
     NEXTAUTH_URL: appUrl,
     AUTH_SECRET: ensureAuthSecret(),
     SMTP_URL: mail.smtpUrl,
+    STRIPE_SECRET_KEY: stripe.secretKey,
+    STRIPE_WEBHOOK_SECRET: stripe.webhookSecret,
+    STRIPE_API_URL: stripe.url,
     DEMO_MODE: 'true',
     NEXT_TELEMETRY_DISABLED: '1',
   };
@@ -92,6 +100,7 @@ try {
   Sign in     ${appUrl}/sign-in
   Workshop    ${appUrl}/workshop   (makers and studio hands)
   Fake inbox  ${mail.inboxUrl}/   (every e-mail the app sends lands here)
+  Fake Stripe ${stripe.url}/_control/state   (test payments: card 4242 4242 4242 4242, any future date, any CVC)
   Health      ${appUrl}/api/health
   Database    ${databaseUrl}
 

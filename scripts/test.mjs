@@ -38,6 +38,7 @@ try {
   ensureChromium();
   const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
   const { startFakeMail } = await import('../fake-services/mail/index.mjs');
+  const { startFakeStripeService } = await import('../fake-services/stripe/index.mjs');
 
   fs.rmSync(path.join(root, 'test-results'), { recursive: true, force: true });
   postgres = await ensurePostgres();
@@ -75,6 +76,9 @@ try {
   sequelizeCli(e2eUrl, ['db:seed:all']);
   const mail = await startFakeMail({ smtpPort: 1125, webPort: 1180, quiet: true });
   services.push(mail.service);
+  // Webhooks retried quickly, so a test that makes the app refuse one sees the retry within seconds.
+  const stripe = await startFakeStripeService({ port: 12211, webhookUrl: 'http://127.0.0.1:3100/api/webhooks/stripe', retrySchedule: [500, 1000, 2000, 4000], quiet: true });
+  services.push(stripe.service);
   const appEnv = {
     ...env,
     DATABASE_URL: e2eUrl,
@@ -82,6 +86,10 @@ try {
     NEXTAUTH_URL: 'http://127.0.0.1:3100',
     SMTP_URL: mail.smtpUrl,
     FAKE_INBOX_URL: mail.inboxUrl,
+    STRIPE_SECRET_KEY: stripe.secretKey,
+    STRIPE_WEBHOOK_SECRET: stripe.webhookSecret,
+    STRIPE_API_URL: stripe.url,
+    FAKE_STRIPE_URL: stripe.url,
     DEMO_MODE: 'true',
     E2E_PORT: '3100',
   };

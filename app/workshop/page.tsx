@@ -1,6 +1,8 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { requirePageRole } from '@/lib/auth/authorize';
 import { listDesignsForWorkshop } from '@/lib/catalogue/workshop';
+import { listOversoldLines } from '@/lib/orders/queries';
 
 export const metadata: Metadata = { title: 'Overview' };
 
@@ -12,11 +14,24 @@ const statusStyle = {
 
 export default async function WorkshopOverviewPage() {
   await requirePageRole('staff', '/workshop');
-  const designs = await listDesignsForWorkshop();
+  const [designs, oversold] = await Promise.all([listDesignsForWorkshop(), listOversoldLines()]);
   return (
     <>
       <h1 className="text-3xl font-medium">Overview</h1>
       <p className="mt-1 text-ink-soft">Designs and finishes as the shop sees them. Drafts are not shown to buyers.</p>
+      {oversold.length > 0 ? (
+        <p className="mt-6 flex gap-2 rounded-sm border border-ember bg-ember-wash px-4 py-3 text-ember-deep">
+          <span aria-hidden="true">▲</span>
+          <span>
+            <strong>{oversold.length === 1 ? '1 mask was' : `${oversold.length} masks were`} paid after the stock had gone</strong> — decide in
+            the{' '}
+            <Link href="/workshop/oversold" className="font-semibold underline underline-offset-4">
+              oversold queue
+            </Link>
+            .
+          </span>
+        </p>
+      ) : null}
       <div className="mt-6 overflow-x-auto rounded-sm border border-paper-edge bg-paper">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">Designs</caption>

@@ -2,10 +2,12 @@ import 'server-only';
 import PgBoss from 'pg-boss';
 import { getEnv } from '@/lib/env';
 import { expireHolds } from '@/lib/drops/holds';
+import { deliverOutbox } from '@/lib/mail/outbox';
+import { sweepPayments } from '@/lib/orders/sweeps';
 
 // Jobs live in PostgreSQL (pg-boss keeps its own schema, `pgboss`), so any number of app instances can
 // run the same schedule: pg-boss hands each job to one worker, and a cron fires once per minute overall.
-export const jobNames = { expireHolds: 'expire-holds' } as const;
+export const jobNames = { expireHolds: 'expire-holds', sweepPayments: 'sweep-payments', deliverMail: 'deliver-mail' } as const;
 
 const globalForJobs = globalThis as typeof globalThis & { __demoldBoss?: Promise<PgBoss> };
 
@@ -21,6 +23,18 @@ export function startJobs(): Promise<PgBoss> {
     await boss.work(jobNames.expireHolds, async () => {
       const swept = await expireHolds({ limit: 5000 });
       if (swept > 0) console.log(`expired ${swept} hold(s)`);
+    });
+    await boss.createQueue(jobNames.sweepPayments);
+    await boss.schedule(jobNames.sweepPayments, '* * * * *');
+    await boss.work(jobNames.sweepPayments, async () => {
+      await expireHolds({ limit: 5000 });
+      await sweepPayments();
+    });
+    // The outbox is sent right after each change that queues mail (see kickMail) and swept each minute.
+    await boss.createQueue(jobNames.deliverMail);
+    await boss.schedule(jobNames.deliverMail, '* * * * *');
+    await boss.work(jobNames.deliverMail, async () => {
+      await deliverOutbox({ limit: 200 });
     });
     return boss;
   })();

@@ -23,6 +23,10 @@ const routeProbes: Record<string, Record<string, { path: string; expect: number;
   '/api/holds': { POST: { path: '/api/holds', expect: 400, body: { batchId: 'not-a-uuid' } } },
   '/api/holds/[id]': { DELETE: { path: '/api/holds/00000000-0000-4000-8000-000000000000', expect: 404 } },
   '/api/holds/mine': { GET: { path: '/api/holds/mine', expect: 200 } },
+  '/api/checkout': { POST: { path: '/api/checkout', expect: 400, body: { holdId: 'not-a-uuid' } } },
+  '/api/checkout/options': { GET: { path: '/api/checkout/options?holdId=not-a-uuid', expect: 400 } },
+  '/api/webhooks/stripe': { POST: { path: '/api/webhooks/stripe', expect: 400, body: { id: 'evt_forged' } } },
+  '/api/orders/[number]': { GET: { path: '/api/orders/DM-0000', expect: 404 } },
 };
 
 test.describe('who may open what', () => {
@@ -34,7 +38,7 @@ test.describe('who may open what', () => {
 
       for (const [pattern, rule] of Object.entries(pageRules)) {
         const response = await request.get((rule.example ?? pattern).replace(':open-batch', openBatch), { maxRedirects: 0 });
-        const expected = allowed(rule.access, caller) ? 200 : caller === 'anonymous' ? 307 : 403;
+        const expected = allowed(rule.access, caller) ? (rule.status ?? 200) : caller === 'anonymous' ? 307 : 403;
         // The sign-in page sends someone already signed in on to their account.
         const status = pattern === '/sign-in' && caller !== 'anonymous' && response.status() === 307 ? 200 : response.status();
         expect(status, `${caller} GET ${pattern}`).toBe(expected);

@@ -4,14 +4,17 @@ import { SignOutButton } from '@/components/auth/sign-out-button';
 import { LocalTime } from '@/components/local-time';
 import { requirePageUser } from '@/lib/auth/authorize';
 import { hasRole, roleLabels } from '@/lib/auth/roles';
+import { Price } from '@/components/ui/price';
 import { listMyActiveHolds } from '@/lib/drops/holds';
+import { listBuyerOrders } from '@/lib/orders/queries';
+import { orderStateLabels } from '@/lib/orders/states';
 import { NameForm } from './_components/name-form';
 
 export const metadata: Metadata = { title: 'Your account' };
 
 export default async function AccountPage() {
   const user = await requirePageUser('/account');
-  const holds = await listMyActiveHolds(user);
+  const [holds, orders] = await Promise.all([listMyActiveHolds(user), listBuyerOrders(user.id)]);
   return (
     <>
       <h1 className="text-4xl font-medium">Your account</h1>
@@ -48,9 +51,28 @@ export default async function AccountPage() {
       </section>
       <section className="mt-10" aria-labelledby="orders-title">
         <h2 id="orders-title" className="text-2xl font-medium">
-          Orders and waitlists
+          Your orders
         </h2>
-        <p className="mt-2 text-ink-soft">Nothing yet. Masks you buy and waitlists you join will be listed here.</p>
+        {orders.length === 0 ? (
+          <p className="mt-2 text-ink-soft">Nothing yet. Masks you buy will be listed here, with where each one has got to.</p>
+        ) : (
+          <ul className="mt-3 grid gap-2" data-testid="my-orders">
+            {orders.map((order) => (
+              <li key={order.id}>
+                <Link href={`/orders/${order.number}`} className="grid gap-1 rounded-sm border border-paper-edge px-4 py-3 hover:border-ink sm:grid-cols-[1fr_auto]">
+                  <span>
+                    <span className="figures font-semibold">{order.number}</span> · {order.quantity} × {order.designName}, {order.finishName}
+                    <span className="block text-sm text-ink-soft">
+                      {orderStateLabels[order.state]}
+                      {order.paidAt ? <> · paid <LocalTime at={order.paidAt} /></> : null}
+                    </span>
+                  </span>
+                  <Price value={{ amountMinor: order.totalMinor, currency: order.currency }} className="sm:text-right" />
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
       </section>
       <div className="mt-10 flex flex-wrap items-center gap-4">
         {hasRole(user.role, 'staff') ? (

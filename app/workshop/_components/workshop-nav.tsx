@@ -5,6 +5,8 @@ import { usePathname } from 'next/navigation';
 
 const links = [
   { href: '/workshop', label: 'Overview' },
+  { href: '/workshop/orders', label: 'Orders' },
+  { href: '/workshop/oversold', label: 'Oversold' },
   { href: '/workshop/people', label: 'People' },
 ];
 
@@ -12,14 +14,15 @@ export function WorkshopNav() {
   const pathname = usePathname();
   return (
     <nav aria-label="Workshop">
-      <ul className="flex gap-4 text-sm">
+      <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         {links.map((link) => {
-          const current = pathname === link.href;
+          // An order's own page sits under Orders.
+          const current = pathname === link.href || (link.href !== '/workshop' && pathname.startsWith(`${link.href}/`));
           return (
             <li key={link.href}>
               <Link
                 href={link.href}
-                aria-current={current ? 'page' : undefined}
+                aria-current={pathname === link.href ? 'page' : current ? 'true' : undefined}
                 className={current ? 'font-semibold text-ink underline underline-offset-4' : 'text-ink-soft hover:text-ink'}
               >
                 {link.label}

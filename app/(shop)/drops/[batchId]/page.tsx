@@ -6,7 +6,7 @@ import { getDrop } from '@/lib/drops/catalogue';
 import { batchIdSchema } from '@/lib/drops/schemas';
 import { DropLive } from './_components/drop-live';
 
-type Props = { params: Promise<{ batchId: string }> };
+type Props = { params: Promise<{ batchId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
 
 async function load(raw: string) {
   const id = batchIdSchema.safeParse(raw);
@@ -18,7 +18,7 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return drop ? { title: `${drop.design.name}: ${drop.name}`, description: drop.design.summary } : { title: 'Drop not found' };
 }
 
-export default async function DropPage({ params }: Props) {
+export default async function DropPage({ params, searchParams }: Props) {
   const drop = await load((await params).batchId);
   if (!drop) notFound();
   const user = await getCurrentUser();
@@ -48,7 +48,7 @@ export default async function DropPage({ params }: Props) {
         </li>
       </ul>
       <div className="mt-8">
-        <DropLive drop={drop} signedIn={Boolean(user)} />
+        <DropLive drop={drop} signedIn={Boolean(user)} returnedFromCheckout={(await searchParams).checkout === 'cancelled'} />
       </div>
     </article>
   );

@@ -9,6 +9,7 @@ import { ApiError, readApiResponse } from '@/lib/api/client';
 import type { DropView } from '@/lib/drops/catalogue';
 import { dropPhase, formatCountdown, formatInZone, type DropPhase } from '@/lib/drops/phase';
 import { useClock, useOwnTimeZone } from '@/lib/hooks/use-clock';
+import { CheckoutForm } from './checkout-form';
 
 type Availability = {
   /** How far the server's clock is ahead of this device's, measured when the answer arrived. */
@@ -27,7 +28,7 @@ const phaseWords: Record<DropPhase, string> = {
   cancelled: 'Cancelled',
 };
 
-export function DropLive({ drop, signedIn }: { drop: DropView; signedIn: boolean }) {
+export function DropLive({ drop, signedIn, returnedFromCheckout = false }: { drop: DropView; signedIn: boolean; returnedFromCheckout?: boolean }) {
   const queryClient = useQueryClient();
   const availability = useQuery({
     queryKey: ['availability', drop.id],
@@ -61,6 +62,11 @@ export function DropLive({ drop, signedIn }: { drop: DropView; signedIn: boolean
       {availability.isError ? (
         <p role="alert" className="mt-4 rounded-sm border border-ember/40 bg-ember-wash p-3 text-ember-deep">
           Live stock could not be loaded. We keep trying every few seconds.
+        </p>
+      ) : null}
+      {returnedFromCheckout && myHolds.length > 0 ? (
+        <p role="status" className="mt-4 rounded-sm border border-paper-edge bg-paper p-3">
+          The payment was not finished, so nothing was charged. Your hold is still yours until its timer ends: you can pay again below.
         </p>
       ) : null}
       {myHolds.map((hold) => (
@@ -226,12 +232,10 @@ function HeldPanel({ hold, now, onEnded }: { hold: MyHold; now: number | null; o
         <strong className="figures text-2xl" data-testid="hold-countdown">{left === null ? '…' : formatCountdown(left)}</strong> while you pay. After
         that it goes back to the batch.
       </p>
-      <div className="mt-3 flex flex-wrap items-center gap-3">
-        <button type="button" disabled title="Payment comes with checkout" className="rounded-full bg-ink px-6 py-2.5 font-semibold text-paper opacity-60">
-          Pay (coming with checkout)
-        </button>
+      <CheckoutForm holdId={hold.id} defaultCountry="IE" />
+      <div className="mt-4 flex flex-wrap items-center gap-3">
         <button type="button" onClick={() => release.mutate()} disabled={release.isPending} className="rounded-full border border-ink px-5 py-2 font-semibold">
-          {release.isPending ? 'Letting go…' : 'Let it go'}
+          {release.isPending ? 'Letting go…' : 'Let it go instead'}
         </button>
       </div>
     </section>
