@@ -23,8 +23,10 @@ export default async function WorkshopOverviewPage() {
         <p className="mt-6 flex gap-2 rounded-sm border border-ember bg-ember-wash px-4 py-3 text-ember-deep">
           <span aria-hidden="true">▲</span>
           <span>
-            <strong>{oversold.length === 1 ? '1 mask was' : `${oversold.length} masks were`} paid after the stock had gone</strong> — decide in
-            the{' '}
+            <strong>
+              {oversold.length === 1 ? '1 mask was' : `${oversold.length} masks were`} paid after the stock had gone
+            </strong>{' '}
+            — decide in the{' '}
             <Link href="/workshop/oversold" className="font-semibold underline underline-offset-4">
               oversold queue
             </Link>

@@ -9,6 +9,7 @@ import { orderNumberSchema, refundReasonLabels } from '@/lib/orders/schemas';
 import { Flag, Nothing, OrderStateBadge, OversoldBadge, RefundStatus } from '../_components/badges';
 import { DecisionStatus } from '../_components/decision-status';
 import {
+  eventActor,
   eventLabel,
   formatDay,
   oversoldReasonLabels,
@@ -329,7 +330,15 @@ export default async function WorkshopOrderPage({ params }: Props) {
                           <td className={td}>
                             <StudioTime at={event.createdAt} zone={zone} />
                           </td>
-                          <td className={td}>{eventLabel(event)}</td>
+                          <td className={td}>
+                            {eventLabel(event)}
+                            {typeof event.data.amountMinor === 'number' ? (
+                              <span className="text-ink-soft">
+                                {' '}
+                                · <Price value={money(event.data.amountMinor)} />
+                              </span>
+                            ) : null}
+                          </td>
                           <td className={td}>
                             {from && to ? (
                               <>
@@ -347,7 +356,9 @@ export default async function WorkshopOrderPage({ params }: Props) {
                             )}
                           </td>
                           <td className={td}>
-                            {event.actorName ?? <span className="text-ink-soft">Automatic</span>}
+                            {event.actorName ?? (
+                              <span className="text-ink-soft">{eventActor(event.type)}</span>
+                            )}
                           </td>
                         </tr>
                       );

@@ -57,6 +57,11 @@ export function eventLabel(event: Pick<OrderEventView, 'type' | 'data'>): string
   return spaced.charAt(0).toUpperCase() + spaced.slice(1);
 }
 
+/** Who did it when no studio person did: the buyer at checkout, otherwise the shop on its own. */
+export function eventActor(type: string): string {
+  return type === 'checkout_started' || type === 'checkout_changed' ? 'Buyer' : 'Automatic';
+}
+
 export function stateWords(state: string | null): string | null {
   if (state === null) return null;
   return (orderStates as readonly string[]).includes(state)
