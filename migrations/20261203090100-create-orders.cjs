@@ -75,7 +75,7 @@ module.exports = {
         UNIQUE (order_id, position),
         CONSTRAINT order_lines_price_sensible CHECK (unit_price_minor >= 0),
         CONSTRAINT order_lines_oversold_reason CHECK (
-          (oversold AND oversold_reason IN ('stock_gone', 'over_buyer_limit')) OR (NOT oversold AND oversold_reason IS NULL)),
+          (oversold AND oversold_reason IS NOT NULL AND oversold_reason IN ('stock_gone', 'over_buyer_limit')) OR (NOT oversold AND oversold_reason IS NULL)),
         CONSTRAINT order_lines_resolution_known CHECK (oversold_resolution IS NULL OR
           (oversold AND oversold_resolution IN ('refunded', 'extra_cast'))),
         CONSTRAINT order_lines_oversold_not_in_stock CHECK (NOT (oversold AND oversold_resolution IS DISTINCT FROM 'extra_cast' AND counted_in_stock)),

@@ -92,6 +92,8 @@ try {
     FAKE_STRIPE_URL: stripe.url,
     DEMO_MODE: 'true',
     E2E_PORT: '3100',
+    // The browser tests time holds and payments themselves; the minute sweeps (tested in vitest) would race them.
+    JOBS_ENABLED: 'false',
   };
   const built = record(
     'build',

@@ -2,6 +2,7 @@ import 'server-only';
 import type Stripe from 'stripe';
 import type { Transaction } from 'sequelize';
 import { inTransaction, sql } from '@/lib/db/sql';
+import { kickMail } from '@/lib/mail/outbox';
 import { recordOrderEvent } from './checkout';
 import { queueOrderConfirmation, queueOversoldAlert, queueRefundEmail } from './notify';
 import { nextState, type OrderState } from './states';
@@ -257,7 +258,7 @@ export async function applyRefunds(orderId: string, transaction: Transaction, ac
     refunded = Math.min(order.paid_minor, refunded + refund.amount_minor);
     if (refund.line_ids.length > 0) {
       await sql(
-        `UPDATE order_lines SET refunded = true, oversold_resolution = CASE WHEN oversold THEN 'refunded' ELSE oversold_resolution END, updated_at = now()
+        `UPDATE order_lines SET refunded = true, oversold_resolution = CASE WHEN oversold AND oversold_resolution IS NULL THEN 'refunded' ELSE oversold_resolution END, updated_at = now()
           WHERE order_id = $1 AND id = ANY($2::uuid[])`,
         [orderId, refund.line_ids],
         transaction,
@@ -297,9 +298,11 @@ async function restockLines(order: LockedOrder, lineIds: string[], transaction: 
 
 /** For the reconcile sweep and the order page: apply a session read back from Stripe, as if its event came. */
 export async function applySessionFromStripe(session: Stripe.Checkout.Session): Promise<EventOutcome> {
-  return inTransaction(async (transaction) => {
+  const result = await inTransaction(async (transaction): Promise<EventOutcome> => {
     if (session.status === 'complete' && session.payment_status === 'paid') return completeSession(session, transaction);
     if (session.status === 'expired') return expireSession(session, transaction);
     return { outcome: 'ignored', note: 'session still open' };
   });
+  if (result.outcome === 'processed') kickMail();
+  return result;
 }

@@ -3,6 +3,7 @@ import type Stripe from 'stripe';
 import { AppError } from '@/lib/api/errors';
 import { toStripeAmount } from '@/lib/checkout/pricing';
 import { inTransaction, sql } from '@/lib/db/sql';
+import { kickMail } from '@/lib/mail/outbox';
 import { getStripe } from '@/lib/payments/stripe';
 import { recordOrderEvent } from './checkout';
 import { upsertRefund } from './payments';
@@ -109,6 +110,7 @@ async function sendRefund(row: PendingRefund): Promise<RefundResult> {
     return { refundId: row.id, status: 'pending', amountMinor: row.amount_minor, message: 'The payment service did not answer in time. The refund is recorded and will be sent again automatically within minutes.' };
   }
   await inTransaction((transaction) => upsertRefund(refund, transaction));
+  kickMail();
   const status = refund.status === 'succeeded' ? 'succeeded' : refund.status === 'failed' ? 'failed' : 'pending';
   return { refundId: row.id, status, amountMinor: row.amount_minor, message: status === 'succeeded' ? 'Refunded. The buyer gets an e-mail.' : 'The refund is on its way.' };
 }

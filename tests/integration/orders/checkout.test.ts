@@ -115,7 +115,7 @@ describe('the webhook endpoint', () => {
     const { POST } = await import('@/app/api/webhooks/stripe/route');
     const headers = new Headers({ 'Content-Type': 'application/json' });
     if (signature !== null) headers.set('Stripe-Signature', signature);
-    return POST(new Request('http://127.0.0.1/api/webhooks/stripe', { method: 'POST', headers, body }));
+    return POST(new Request('http://127.0.0.1/api/webhooks/stripe', { method: 'POST', headers, body }), undefined);
   }
   const event = (id: string) =>
     JSON.stringify({ id, object: 'event', type: 'checkout.session.completed', created: Math.floor(Date.now() / 1000), data: { object: { id: 'cs_test_unknown', object: 'checkout.session', payment_status: 'paid', metadata: {} } } });

@@ -27,7 +27,7 @@ export function withCheckoutWorld(label: string) {
       const { POST } = await import('@/app/api/webhooks/stripe/route');
       const headers = new Headers();
       for (const [key, value] of Object.entries(req.headers)) if (typeof value === 'string') headers.set(key, value);
-      const response = await POST(new Request('http://127.0.0.1/api/webhooks/stripe', { method: 'POST', headers, body: Buffer.concat(chunks) }));
+      const response = await POST(new Request('http://127.0.0.1/api/webhooks/stripe', { method: 'POST', headers, body: Buffer.concat(chunks) }), undefined);
       res.writeHead(response.status, { 'Content-Type': 'application/json' });
       res.end(await response.text());
     });

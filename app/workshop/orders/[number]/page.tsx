@@ -106,8 +106,8 @@ export default async function WorkshopOrderPage({ params }: Props) {
               .
             </strong>{' '}
             {isOwner
-              ? 'Refund it, or cast an extra, in the list of masks below.'
-              : 'The maker decides whether to refund it or cast an extra.'}
+              ? 'Decide for each in the list of masks below: refund it, or cast an extra.'
+              : 'The maker decides for each whether to refund it or cast an extra.'}
           </span>
         </p>
       ) : null}
