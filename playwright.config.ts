@@ -32,7 +32,7 @@ export default defineConfig({
     {
       name: 'phone',
       // Access rules and the hold race do not depend on the screen: they run once, on the desktop project.
-      testIgnore: /(access|race)\.spec\.ts/,
+      testIgnore: /(access|race|oversold)\.spec\.ts/,
       use: {
         ...devices['Pixel 7'],
         browserName: 'chromium',

@@ -54,12 +54,19 @@ export function sendJson(
   send(res, status, JSON.stringify(body, null, 2), { 'Content-Type': 'application/json', ...headers });
 }
 
-export function sendHtml(res: ServerResponse, status: number, html: string): void {
+export function sendHtml(res: ServerResponse, status: number, html: string, returnUrl?: string | null): void {
+  // Browsers check form-action against the redirect that follows a form post too, so the shop's return
+  // address (where a paid form is sent on to) must be allowed beside the fake itself.
+  let returnOrigin = '';
+  try {
+    returnOrigin = returnUrl ? ` ${new URL(returnUrl).origin}` : '';
+  } catch {
+    returnOrigin = '';
+  }
   send(res, status, html, {
     'Content-Type': 'text/html; charset=utf-8',
     // The page loads nothing from elsewhere but product images; forms post only back to the fake.
-    'Content-Security-Policy':
-      "default-src 'none'; img-src * data:; style-src 'unsafe-inline'; form-action 'self'",
+    'Content-Security-Policy': `default-src 'none'; img-src * data:; style-src 'unsafe-inline'; form-action 'self'${returnOrigin}`,
     'X-Content-Type-Options': 'nosniff',
   });
 }

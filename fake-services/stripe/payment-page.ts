@@ -296,11 +296,13 @@ export function handlePaymentPage(
     sendHtml(res, closed.status, closed.html);
     return;
   }
+  const returnUrl = record.session.success_url;
   if (req.method !== 'POST') {
     sendHtml(
       res,
       200,
       page('Pay', form(ctx, record, { email: record.session.customer_email ?? '' }, {}, null)),
+      returnUrl,
     );
     return;
   }
@@ -310,6 +312,7 @@ export function handlePaymentPage(
       res,
       400,
       page('Pay', form(ctx, record, {}, {}, 'The form could not be read; please fill it in again.')),
+      returnUrl,
     );
     return;
   }
@@ -328,13 +331,14 @@ export function handlePaymentPage(
     return;
   }
   if (result.kind === 'invalid') {
-    sendHtml(res, 400, page('Pay', form(ctx, record, values, result.errors, 'Please check the form')));
+    sendHtml(res, 400, page('Pay', form(ctx, record, values, result.errors, 'Please check the form')), returnUrl);
     return;
   }
   sendHtml(
     res,
     402,
     page('Pay', form(ctx, record, values, {}, `${result.message} No money was taken; try another card.`)),
+    returnUrl,
   );
 }
 

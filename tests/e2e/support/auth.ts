@@ -17,15 +17,15 @@ export async function signInAs(request: APIRequestContext, role: Role): Promise<
 
 export type InboxMessage = { to: { address: string }[]; subject: string; text: string; date: string };
 
-/** The newest message to `address` in the fake inbox, waiting for it to arrive. */
-export async function latestEmailTo(request: APIRequestContext, address: string): Promise<InboxMessage> {
+/** The newest message to `address` (with this subject, if given) in the fake inbox, waiting for it to arrive. */
+export async function latestEmailTo(request: APIRequestContext, address: string, subject?: string): Promise<InboxMessage> {
   const inbox = process.env.FAKE_INBOX_URL;
   if (!inbox) throw new Error('FAKE_INBOX_URL is not set: run the browser tests through `npm test`');
   let found: InboxMessage | undefined;
   await expect
     .poll(async () => {
       const messages = (await (await request.get(`${inbox}/api/email`)).json()) as InboxMessage[];
-      found = messages.filter((m) => m.to.some((t) => t.address === address)).at(-1);
+      found = messages.filter((m) => m.to.some((t) => t.address === address) && (!subject || m.subject === subject)).at(-1);
       return Boolean(found);
     }, { timeout: 15_000 })
     .toBe(true);

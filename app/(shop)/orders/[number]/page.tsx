@@ -1,7 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
-import { MaskSafetyNote } from '@/components/mask-safety-note';
 import { Price } from '@/components/ui/price';
 import { getCurrentUser } from '@/lib/auth/session';
 import { formatInZone } from '@/lib/drops/phase';
@@ -15,6 +14,7 @@ type Props = { params: Promise<{ number: string }>; searchParams: Promise<Record
 
 export const metadata: Metadata = { title: 'Your order', robots: { index: false } };
 
+const countryName = (code: string) => new Intl.DisplayNames(['en'], { type: 'region' }).of(code) ?? code;
 const one = (value: string | string[] | undefined) => (typeof value === 'string' ? value : null);
 
 const stages = ['to_cast', 'cast', 'trimmed', 'painted', 'packed', 'shipped'] as const;
@@ -99,7 +99,7 @@ export default async function OrderPage({ params, searchParams }: Props) {
           </p>
           {order.shipTo?.address ? (
             <address className="mt-3 not-italic">
-              {[order.shipTo.name, order.shipTo.address.line1, order.shipTo.address.line2, [order.shipTo.address.postal_code, order.shipTo.address.city].filter(Boolean).join(' '), order.shipTo.address.state, order.shipTo.address.country]
+              {[order.shipTo.name, order.shipTo.address.line1, order.shipTo.address.line2, [order.shipTo.address.postal_code, order.shipTo.address.city].filter(Boolean).join(' '), order.shipTo.address.state, order.shipTo.address.country ? countryName(order.shipTo.address.country) : null]
                 .filter(Boolean)
                 .map((part, index) => (
                   <span key={index} className="block">{part}</span>
@@ -127,7 +127,6 @@ export default async function OrderPage({ params, searchParams }: Props) {
         <Link href={`/designs/${order.designSlug}`} className="underline underline-offset-4">About the {order.designName}</Link>
         {user ? <Link href="/account" className="underline underline-offset-4">All your orders</Link> : null}
       </p>
-      <MaskSafetyNote className="mt-10 border-t border-paper-edge pt-6" />
     </article>
   );
 }
