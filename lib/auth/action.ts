@@ -34,7 +34,11 @@ export function authorizedAction<S extends z.ZodType>(
       }
       return { ok: true, message: await handler(parsed.data, user) };
     } catch (error) {
-      if (error instanceof AppError) return { ok: false, error: { code: error.code, message: error.message } };
+      if (error instanceof AppError) {
+        // A domain rule about one field (a time that does not exist, a duplicate name) is shown by that field.
+        const fields = error.details?.fields as Record<string, string[]> | undefined;
+        return { ok: false, error: { code: error.code, message: error.message, ...(fields ? { fieldErrors: fields } : {}) } };
+      }
       // Next's own control flow (redirect, notFound) must pass through untouched.
       if (error instanceof Error && 'digest' in error) throw error;
       console.error('A server action failed', error);

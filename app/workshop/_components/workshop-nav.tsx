@@ -5,6 +5,7 @@ import { usePathname } from 'next/navigation';
 
 const links = [
   { href: '/workshop', label: 'Overview' },
+  { href: '/workshop/batches', label: 'Batches' },
   { href: '/workshop/orders', label: 'Orders' },
   { href: '/workshop/oversold', label: 'Oversold' },
   { href: '/workshop/people', label: 'People' },

@@ -7,14 +7,15 @@ import { maskOrder, payByControl, sdk, startFake } from './helpers';
 
 /*
  * Contract against Stripe's own published example objects.
- * Source: shared/reference/stripe/fixtures.json (beside the checkout), which holds, unchanged, the
- * examples from Stripe's public OpenAPI repository (openapi/fixtures3.json, MIT licence); see the
- * README beside it. Every field of Stripe's example must be on the fake's object with the same JSON
+ * Source: tests/fixtures/stripe/fixtures.json, an unchanged copy of the examples from Stripe's public
+ * OpenAPI repository (openapi/fixtures3.json, MIT licence); see the README beside it. Where the shared
+ * reference folder sits beside the checkout, the copy is checked against it too. Every field of Stripe's example must be on the fake's object with the same JSON
  * type; where the example has null, any value will do.
  */
 
 const repoRoot = path.resolve(__dirname, '../../..');
-const fixturesFile = path.resolve(repoRoot, '../shared/reference/stripe/fixtures.json');
+const fixturesFile = path.join(repoRoot, 'tests/fixtures/stripe/fixtures.json');
+const sharedReference = path.resolve(repoRoot, '../shared/reference/stripe/fixtures.json');
 const fixtures = JSON.parse(fs.readFileSync(fixturesFile, 'utf8')) as {
   resources: Record<string, Record<string, unknown>>;
 };
@@ -158,10 +159,13 @@ afterAll(async () => {
 });
 
 describe("the fake's objects against Stripe's published examples", () => {
-  it('reads the reference file beside the checkout', () => {
+  it('reads the reference examples (and the copy still matches the shared reference, where it is beside the checkout)', () => {
     expect(Object.keys(fixtures.resources)).toEqual(
       expect.arrayContaining(['checkout.session', 'item', 'payment_intent', 'charge', 'refund', 'event']),
     );
+    if (fs.existsSync(sharedReference)) {
+      expect(fs.readFileSync(fixturesFile, 'utf8')).toBe(fs.readFileSync(sharedReference, 'utf8'));
+    }
   });
 
   for (const resource of ['checkout.session', 'item', 'payment_intent', 'charge', 'refund', 'event']) {
