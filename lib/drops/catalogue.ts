@@ -20,6 +20,7 @@ export type DropView = {
   opensAt: string;
   closesAt: string;
   shipBy: string;
+  announcement: string;
   design: { slug: string; name: string; summary: string };
   studio: { name: string; timeZone: string };
   finishes: DropFinish[];
@@ -28,12 +29,12 @@ export type DropView = {
 async function loadDrop(batchId: string): Promise<DropView | null> {
   const rows = await getDb().sequelize.query<{
     id: string; name: string; status: 'scheduled' | 'cancelled'; per_buyer_limit: number; hold_minutes: number;
-    early_access_at: Date | null; opens_at: Date; closes_at: Date; ship_by: string;
+    early_access_at: Date | null; opens_at: Date; closes_at: Date; ship_by: string; announcement: string;
     design_slug: string; design_name: string; summary: string; studio_name: string; time_zone: string;
     finish_id: string; finish_slug: string; finish_name: string; description: string; price_minor: number; currency: string;
     src: string | null; alt: string | null; width: number | null; height: number | null;
   }>(
-    `SELECT b.id, b.name, b.status, b.per_buyer_limit, b.hold_minutes, b.early_access_at, b.opens_at, b.closes_at, b.ship_by::text,
+    `SELECT b.id, b.name, b.status, b.per_buyer_limit, b.hold_minutes, b.early_access_at, b.opens_at, b.closes_at, b.ship_by::text, b.announcement,
             d.slug AS design_slug, d.name AS design_name, d.summary, st.name AS studio_name, st.time_zone,
             f.id AS finish_id, f.slug AS finish_slug, f.name AS finish_name, f.description,
             d.base_price_minor + f.price_difference_minor AS price_minor, d.currency,
@@ -57,6 +58,7 @@ async function loadDrop(batchId: string): Promise<DropView | null> {
     opensAt: first.opens_at.toISOString(),
     closesAt: first.closes_at.toISOString(),
     shipBy: first.ship_by,
+    announcement: first.announcement,
     design: { slug: first.design_slug, name: first.design_name, summary: first.summary },
     studio: { name: first.studio_name, timeZone: first.time_zone },
     finishes: rows.map((r) => ({
@@ -87,7 +89,7 @@ async function loadDropSummaries(): Promise<DropSummary[]> {
     id: string; name: string; design_slug: string; design_name: string; early_access_at: Date | null; opens_at: Date; closes_at: Date;
     ship_by: string; units: number; src: string | null; alt: string | null;
   }>(
-    `SELECT b.id, b.name, d.slug AS design_slug, d.name AS design_name, b.early_access_at, b.opens_at, b.closes_at, b.ship_by::text,
+    `SELECT b.id, b.name, d.slug AS design_slug, d.name AS design_name, b.early_access_at, b.opens_at, b.closes_at, b.ship_by::text, b.announcement,
             (SELECT sum(quantity)::int FROM batch_stock WHERE batch_id = b.id) AS units, p.src, p.alt
        FROM batches b JOIN designs d ON d.id = b.design_id
        LEFT JOIN LATERAL (SELECT src, alt FROM photos WHERE design_id = d.id ORDER BY position LIMIT 1) p ON true

@@ -17,6 +17,9 @@ function studioTime(days: number, hhmm: string): string {
 function form(overrides: Partial<BatchForm> = {}): BatchForm {
   const oldBone = ibex.finishes.find((f) => f.slug === 'old-bone')!.id;
   return {
+    batchId: undefined,
+    earlyAccessAt: undefined,
+    plannedShipBy: undefined,
     designId: ibex.id,
     name: 'Spring batch',
     announcement: 'Thirty Ibex in three finishes.',

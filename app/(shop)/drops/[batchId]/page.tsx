@@ -30,6 +30,7 @@ export default async function DropPage({ params, searchParams }: Props) {
         {drop.design.name}: {drop.name}
       </h1>
       <p className="mt-3 max-w-2xl text-lg text-ink-soft">{drop.design.summary}</p>
+      {drop.announcement ? <p className="mt-3 max-w-2xl whitespace-pre-line">{drop.announcement}</p> : null}
       <ul className="mt-4 flex flex-wrap gap-x-6 gap-y-1 text-sm text-ink-soft">
         <li>
           {finishCount} {finishCount === 1 ? 'finish' : 'finishes'}
