@@ -9,7 +9,12 @@ import { withAppDatabase } from '../support/app-database';
 // Server actions are called here as Next.js calls them, with the session resolved to each kind of person.
 let currentUser: CurrentUser | null = null;
 vi.mock('@/lib/auth/session', () => ({ getCurrentUser: async () => currentUser }));
-vi.mock('next/cache', () => ({ revalidatePath: () => undefined, revalidateTag: () => undefined }));
+vi.mock('next/cache', () => ({
+  revalidatePath: () => undefined,
+  revalidateTag: () => undefined,
+  updateTag: () => undefined,
+  unstable_cache: <T>(fn: T) => fn,
+}));
 
 withAppDatabase('actions');
 
