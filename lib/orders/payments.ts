@@ -128,7 +128,7 @@ export async function completeSession(session: Stripe.Checkout.Session, transact
   const shipping = session.collected_information?.shipping_details ?? null;
   const email = session.customer_details?.email ?? order.email;
   await sql(
-    `UPDATE orders SET payment_intent_id = $2, paid_minor = $3, paid_at = now(), email = $4, buyer_name = coalesce($5, buyer_name),
+    `UPDATE orders SET state = 'paid', payment_intent_id = $2, paid_minor = $3, paid_at = now(), email = $4, buyer_name = coalesce($5, buyer_name),
             ship_to = $6, cancelled_at = NULL, updated_at = now() WHERE id = $1`,
     [order.id, paymentIntentId, session.amount_total ?? 0, email, shipping?.name ?? session.customer_details?.name ?? null, shipping ? JSON.stringify(shipping) : null],
     transaction,

@@ -41,6 +41,15 @@ describe('paying for a hold', () => {
     expect(holdRow!.state).toBe('converted');
     const lines = await world.rows<{ counted_in_stock: boolean; oversold: boolean }>(`SELECT counted_in_stock, oversold FROM order_lines WHERE order_id = $1`, [order.id]);
     expect(lines).toEqual([{ counted_in_stock: true, oversold: false }, { counted_in_stock: true, oversold: false }]);
+    // Each change of state is recorded once, in order.
+    const events = await world.rows<{ type: string; from_state: string | null; to_state: string | null }>(
+      `SELECT type, from_state, to_state FROM order_events WHERE order_id = $1 ORDER BY id`,
+      [order.id],
+    );
+    expect(events).toEqual([
+      { type: 'checkout_started', from_state: null, to_state: 'awaiting_payment' },
+      { type: 'paid', from_state: 'awaiting_payment', to_state: 'paid' },
+    ]);
     const mail = await world.outbox(order.number);
     expect(mail.map((m) => m.dedupe_key)).toEqual([`order-confirmation:${order.id}`]);
     expect(mail[0]!.to_address).toBe('juno@example.com');
