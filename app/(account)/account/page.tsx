@@ -64,7 +64,7 @@ export default async function AccountPage() {
                     <span className="figures font-semibold">{order.number}</span> · {order.quantity} × {order.designName}, {order.finishName}
                     <span className="block text-sm text-ink-soft">
                       {orderStateLabels[order.state]}
-                      {order.paidAt ? <> · paid <LocalTime at={order.paidAt} /></> : null}
+                      {order.paidAt ? <> · ordered <LocalTime at={order.paidAt} /></> : null}
                     </span>
                   </span>
                   <Price value={{ amountMinor: order.totalMinor, currency: order.currency }} className="sm:text-right" />
