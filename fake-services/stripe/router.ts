@@ -1,11 +1,11 @@
 import type { IncomingMessage, ServerResponse } from 'node:http';
+import { send } from '../lib/http-io';
 import { checkoutRoutes } from './api-checkout';
 import { sweepExpired } from './checkout-flow';
 import { paymentRoutes } from './api-payments';
 import type { ApiRequest, ApiResponse, Route } from './api-types';
 import { DEFAULT_API_VERSION, type FakeContext } from './context';
 import { type FormObject, parseFormParams } from './form-params';
-import { send } from './http-io';
 import type { Reservation } from './idempotency';
 import { newId } from './ids';
 import { apiError, authenticationError, paramError, StripeHttpError, unrecognizedUrl } from './stripe-errors';

@@ -1,12 +1,12 @@
 import http from 'node:http';
-import type { AddressInfo } from 'node:net';
-import path from 'node:path';
+import { BodyTooLarge, readBody } from '../lib/http-io';
+import { argValue, assertLoopback, closeServer, listen, portFrom, runAsCli } from '../lib/serve';
 import { sweepExpired } from './checkout-flow';
 import { Clock } from './clock';
 import type { FakeContext } from './context';
 import { handleControl } from './control';
 import { DEFAULT_SEED, FaultState } from './faults';
-import { BodyTooLarge, readBody, sendJson } from './http-io';
+import { sendJson } from './http-io';
 import { IdempotencyStore } from './idempotency';
 import { seededRandom } from './ids';
 import { handlePaymentPage, handleReceipt } from './payment-page';
@@ -44,13 +44,9 @@ export interface FakeStripe {
 /** Stripe retries for days; the fake keeps the same shape but short, and tests make it shorter still. */
 export const DEFAULT_RETRY_SCHEDULE = [1_000, 5_000, 30_000, 120_000, 600_000];
 
-const LOOPBACK = new Set(['127.0.0.1', 'localhost', '::1']);
-
 export async function startFakeStripe(options: FakeStripeOptions): Promise<FakeStripe> {
   const host = options.host ?? '127.0.0.1';
-  if (!LOOPBACK.has(host) && !host.startsWith('127.')) {
-    throw new Error(`The fake Stripe listens on loopback only, not on ${host}.`);
-  }
+  assertLoopback(host, 'Stripe');
   if (options.webhookUrl) {
     const endpoint = new URL(options.webhookUrl);
     if (endpoint.protocol !== 'http:' && endpoint.protocol !== 'https:')
@@ -88,7 +84,7 @@ export async function startFakeStripe(options: FakeStripeOptions): Promise<FakeS
     void (async () => {
       const url = new URL(req.url ?? '/', 'http://fake-stripe.invalid');
       try {
-        const body = await readBody(req);
+        const body = (await readBody(req)).toString('utf8');
         const method = req.method ?? 'GET';
         if (url.pathname.startsWith('/v1/')) {
           await handleApi(ctx, routes, req, res, url, body);
@@ -127,15 +123,7 @@ export async function startFakeStripe(options: FakeStripeOptions): Promise<FakeS
     })();
   });
 
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(options.port, host, () => {
-      server.off('error', reject);
-      resolve();
-    });
-  });
-  const port = (server.address() as AddressInfo).port;
-  const url = `http://${host.includes(':') ? `[${host}]` : host}:${port}`;
+  const { port, url } = await listen(server, options.port, host);
   ctx.baseUrl = url;
 
   // Expiry is also checked on every request; the timer is for the webhook when nobody is asking.
@@ -148,31 +136,19 @@ export async function startFakeStripe(options: FakeStripeOptions): Promise<FakeS
     async close() {
       clearInterval(sweeper);
       await webhooks.close();
-      await new Promise<void>((resolve) => {
-        server.close(() => resolve());
-        server.closeAllConnections();
-      });
+      await closeServer(server);
     },
   };
 }
 
-function argValue(args: string[], name: string): string | undefined {
-  const at = args.indexOf(name);
-  if (at >= 0) return args[at + 1];
-  return args.find((a) => a.startsWith(`${name}=`))?.slice(name.length + 1);
-}
-
-async function main(): Promise<void> {
-  const args = process.argv.slice(2);
-  const rawPort = argValue(args, '--port') ?? process.env.FAKE_STRIPE_PORT ?? process.env.PORT ?? '12111';
-  const port = Number(rawPort);
-  if (!Number.isInteger(port) || port < 0 || port > 65_535) throw new Error(`Not a port: ${rawPort}`);
+// `node --import tsx fake-services/stripe/server.ts [--port 12111] [--host 127.0.0.1]`
+runAsCli('stripe', async (args) => {
   const schedule = process.env.FAKE_STRIPE_RETRY_SCHEDULE?.split(',').map(Number);
   if (schedule?.some((n) => !Number.isFinite(n) || n < 0))
     throw new Error('FAKE_STRIPE_RETRY_SCHEDULE must be milliseconds separated by commas');
   const fake = await startFakeStripe({
-    port,
-    host: argValue(args, '--host') ?? '127.0.0.1',
+    port: portFrom(args, 'FAKE_STRIPE_PORT', 12111),
+    host: argValue(args, '--host'),
     webhookUrl: process.env.FAKE_STRIPE_WEBHOOK_URL || undefined,
     webhookSecret: process.env.STRIPE_WEBHOOK_SECRET || undefined,
     retrySchedule: schedule,
@@ -180,18 +156,5 @@ async function main(): Promise<void> {
   console.log(
     `fake Stripe listening on ${fake.url} (webhooks: ${process.env.FAKE_STRIPE_WEBHOOK_URL || 'none yet'})`,
   );
-  const stop = () => {
-    void fake.close().then(() => process.exit(0));
-  };
-  process.once('SIGINT', stop);
-  process.once('SIGTERM', stop);
-}
-
-// Run as a CLI (`node --import tsx fake-services/stripe/server.ts`), not when imported by tests or scripts.
-const entry = process.argv[1] ? path.resolve(process.argv[1]) : '';
-if (/[\\/]fake-services[\\/]stripe[\\/]server\.ts$/.test(entry)) {
-  main().catch((e: unknown) => {
-    console.error(`[fake-stripe] ${e instanceof Error ? e.message : String(e)}`);
-    process.exit(1);
-  });
-}
+  return fake;
+});
