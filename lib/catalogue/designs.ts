@@ -1,4 +1,5 @@
 import 'server-only';
+import { col, Op, where } from 'sequelize';
 import { getDb } from '@/lib/db/connection';
 import type { Money } from '@/lib/money';
 
@@ -14,6 +15,10 @@ export type DesignCard = {
   cover: PhotoView | null;
 };
 
+// A batch's own photos belong on its drop page; the design's gallery and cover are its standing photos.
+// (`batch_id` is read by column: the Photo model does not declare it.)
+const standingPhotos = (alias: string) => where(col(`${alias}.batch_id`), Op.is, null);
+
 export type StudioView = { slug: string; name: string; timeZone: string; currency: string };
 
 /** The published designs of the shop's studio with their cheapest finish and cover photo, for the home page. */
@@ -26,7 +31,7 @@ export async function listDesignsForHome(): Promise<{ studio: StudioView | null;
     where: { studioId: studio.id, status: 'published' },
     include: [
       { model: models.Finish, as: 'finishes', where: { status: 'published' }, required: true },
-      { model: models.Photo, as: 'photos', required: false },
+      { model: models.Photo, as: 'photos', required: false, where: standingPhotos('photos') },
     ],
     order: [
       ['position', 'ASC'],
@@ -94,7 +99,7 @@ export async function getPublishedDesignBySlug(slug: string): Promise<DesignDeta
         as: 'finishes',
         where: { status: 'published' },
         required: true,
-        include: [{ model: models.Photo, as: 'photos', required: false }],
+        include: [{ model: models.Photo, as: 'photos', required: false, where: standingPhotos('finishes->photos') }],
       },
     ],
     order: [
