@@ -15,6 +15,7 @@ const port = Number(process.env.PORT ?? 3000);
 const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 1025);
 const inboxPort = Number(process.env.FAKE_INBOX_PORT ?? 1080);
 const stripePort = Number(process.env.FAKE_STRIPE_PORT ?? 12111);
+const uploadsPort = Number(process.env.FAKE_UPLOADTHING_PORT ?? 12311);
 
 const services = [];
 let postgres;
@@ -37,6 +38,7 @@ try {
   const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
   const { startFakeMail } = await import('../fake-services/mail/index.mjs');
   const { startFakeStripeService } = await import('../fake-services/stripe/index.mjs');
+  const { startFakeUploadthingService } = await import('../fake-services/uploadthing/index.mjs');
 
   postgres = await ensurePostgres();
   const databaseUrl = postgres.urlFor(process.env.DEMOLD_DB_NAME ?? 'demold');
@@ -59,7 +61,11 @@ try {
   step('Starting the fake Stripe');
   const stripe = await startFakeStripeService({ port: stripePort, webhookUrl: `${appUrl}/api/webhooks/stripe` });
   services.push(stripe.service);
+  step('Starting the fake uploadthing (photo uploads)');
+  const uploads = await startFakeUploadthingService({ port: uploadsPort, callbackUrl: `${appUrl}/api/uploadthing` });
+  services.push(uploads.service);
   const env = {
+    ...uploads.env,
     ...process.env,
     DATABASE_URL: databaseUrl,
     APP_URL: appUrl,
@@ -100,6 +106,7 @@ try {
   Sign in     ${appUrl}/sign-in
   Workshop    ${appUrl}/workshop   (makers and studio hands)
   Fake inbox  ${mail.inboxUrl}/   (every e-mail the app sends lands here)
+  Fake uploads ${uploads.url}/_control/state   (photos the workshop uploads go through it)
   Fake Stripe ${stripe.url}/_control/state   (test payments: card 4242 4242 4242 4242, any future date, any CVC)
   Health      ${appUrl}/api/health
   Database    ${databaseUrl}

@@ -2,6 +2,10 @@
 // npm test: every check, on a fresh machine too. Sets up what it needs (dependencies, PostgreSQL, the test
 // databases, Chromium, the fake inbox), runs lint, typecheck, vitest and Playwright, and exits non-zero on
 // any failure. Steps after a failure still run where they can, so one run shows every problem.
+//
+// `npm test -- --browser-only [playwright arguments]` skips lint, typecheck and vitest and passes the rest on
+// to Playwright (e.g. `npm test -- --browser-only tests/e2e/maker.spec.ts --project=desktop`): for working on
+// one browser test. Only the full run counts.
 import fs from 'node:fs';
 import path from 'node:path';
 import { ensureDependencies } from './lib/deps.mjs';
@@ -9,6 +13,9 @@ import { stopIfStartedHere } from './lib/postgres.mjs';
 import { aptInstall, root, runStatus, step } from './lib/run.mjs';
 import { ensureAuthSecret } from './lib/secrets.mjs';
 
+const argv = process.argv.slice(2);
+const browserOnly = argv[0] === '--browser-only';
+const playwrightArgs = browserOnly ? argv.slice(1) : [];
 const results = [];
 const services = [];
 const started = Date.now();
@@ -33,12 +40,14 @@ function ensureChromium() {
 
 let postgres;
 let exitCode = 1;
+let vitestOk = true;
 try {
   ensureDependencies();
   ensureChromium();
   const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
   const { startFakeMail } = await import('../fake-services/mail/index.mjs');
   const { startFakeStripeService } = await import('../fake-services/stripe/index.mjs');
+  const { startFakeUploadthingService } = await import('../fake-services/uploadthing/index.mjs');
 
   fs.rmSync(path.join(root, 'test-results'), { recursive: true, force: true });
   postgres = await ensurePostgres();
@@ -52,34 +61,61 @@ try {
   };
   const bin = (file) => path.join(root, 'node_modules', file);
 
-  step('Lint (ESLint with the Next.js rules)');
-  record('lint', runStatus(process.execPath, [bin('eslint/bin/eslint.js'), '.', '--max-warnings', '0'], { env }));
+  if (!browserOnly) {
+    step('Lint (ESLint with the Next.js rules)');
+    record(
+      'lint',
+      runStatus(process.execPath, [bin('eslint/bin/eslint.js'), '.', '--max-warnings', '0'], { env }),
+    );
 
-  step('Typecheck (tsc, strict)');
-  runStatus(process.execPath, [bin('next/dist/bin/next'), 'typegen'], { env });
-  record('typecheck', runStatus(process.execPath, [bin('typescript/bin/tsc'), '--noEmit'], { env }));
+    step('Typecheck (tsc, strict)');
+    runStatus(process.execPath, [bin('next/dist/bin/next'), 'typegen'], { env });
+    record('typecheck', runStatus(process.execPath, [bin('typescript/bin/tsc'), '--noEmit'], { env }));
 
-  step('Unit and integration tests (vitest, integration against PostgreSQL)');
-  const vitestOk = record(
-    'vitest',
-    runStatus(
-      process.execPath,
-      [bin('vitest/vitest.mjs'), 'run', '--reporter=default', '--reporter=json', '--outputFile.json=test-results/vitest.json'],
-      { env: { ...env, NODE_ENV: 'test' } },
-    ),
-  );
+    step('Unit and integration tests (vitest, integration against PostgreSQL)');
+    vitestOk = record(
+      'vitest',
+      runStatus(
+        process.execPath,
+        [
+          bin('vitest/vitest.mjs'),
+          'run',
+          '--reporter=default',
+          '--reporter=json',
+          '--outputFile.json=test-results/vitest.json',
+        ],
+        { env: { ...env, NODE_ENV: 'test' } },
+      ),
+    );
+  }
 
   step('Preparing the browser tests: a freshly seeded database and a production build');
   const e2eUrl = postgres.urlFor('demold_e2e');
   await ensureDatabase(e2eUrl, { fresh: true });
+  fs.rmSync(path.join(root, '.data/media-e2e'), { recursive: true, force: true });
   sequelizeCli(e2eUrl, ['db:migrate']);
   sequelizeCli(e2eUrl, ['db:seed:all']);
   const mail = await startFakeMail({ smtpPort: 1125, webPort: 1180, quiet: true });
   services.push(mail.service);
   // Webhooks retried quickly, so a test that makes the app refuse one sees the retry within seconds.
-  const stripe = await startFakeStripeService({ port: 12211, webhookUrl: 'http://127.0.0.1:3100/api/webhooks/stripe', retrySchedule: [500, 1000, 2000, 4000], quiet: true });
+  const stripe = await startFakeStripeService({
+    port: 12211,
+    webhookUrl: 'http://127.0.0.1:3100/api/webhooks/stripe',
+    retrySchedule: [500, 1000, 2000, 4000],
+    quiet: true,
+  });
   services.push(stripe.service);
+  const uploads = await startFakeUploadthingService({
+    port: 12411,
+    callbackUrl: 'http://127.0.0.1:3100/api/uploadthing',
+    quiet: true,
+  });
+  services.push(uploads.service);
   const appEnv = {
+    ...uploads.env,
+    FAKE_UPLOADTHING_URL: uploads.url,
+    // The browser tests' uploads go to a folder of their own, emptied each run.
+    MEDIA_DIR: path.join(root, '.data/media-e2e'),
     ...env,
     DATABASE_URL: e2eUrl,
     APP_URL: 'http://127.0.0.1:3100',
@@ -97,14 +133,18 @@ try {
   };
   const built = record(
     'build',
-    runStatus(process.execPath, [bin('next/dist/bin/next'), 'build'], { env: { ...appEnv, NODE_ENV: 'production' } }),
+    runStatus(process.execPath, [bin('next/dist/bin/next'), 'build'], {
+      env: { ...appEnv, NODE_ENV: 'production' },
+    }),
   );
 
   if (built) {
     step('Browser tests (Playwright with Debian’s Chromium)');
     record(
       'playwright',
-      runStatus(process.execPath, [bin('@playwright/test/cli.js'), 'test'], { env: { ...appEnv, NODE_ENV: 'production' } }),
+      runStatus(process.execPath, [bin('@playwright/test/cli.js'), 'test', ...playwrightArgs], {
+        env: { ...appEnv, NODE_ENV: 'production' },
+      }),
     );
   } else {
     record('playwright', 1, 'not run: the build failed');
@@ -113,17 +153,21 @@ try {
   const vitest = readJson('test-results/vitest.json');
   const playwright = readJson('test-results/playwright.json');
   const passed = (vitest?.numPassedTests ?? 0) + (playwright?.stats?.expected ?? 0);
-  const failed = (vitest?.numFailedTests ?? 0) + (playwright?.stats?.unexpected ?? 0) + (playwright?.stats?.flaky ?? 0);
-  const skipped = (vitest?.numPendingTests ?? 0) + (vitest?.numTodoTests ?? 0) + (playwright?.stats?.skipped ?? 0);
+  const failed =
+    (vitest?.numFailedTests ?? 0) + (playwright?.stats?.unexpected ?? 0) + (playwright?.stats?.flaky ?? 0);
+  const skipped =
+    (vitest?.numPendingTests ?? 0) + (vitest?.numTodoTests ?? 0) + (playwright?.stats?.skipped ?? 0);
 
   console.log('\n\x1b[1mSummary\x1b[0m');
   for (const r of results) console.log(`  ${r.ok ? '✔' : '✘'} ${r.name}${r.extra ? ` (${r.extra})` : ''}`);
-  if (!vitestOk && !vitest) console.log('  vitest wrote no report: see its output above');
+  if (!browserOnly && !vitestOk && !vitest) console.log('  vitest wrote no report: see its output above');
   console.log(`  took ${Math.round((Date.now() - started) / 1000)} s`);
   console.log(`\ntests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
   exitCode = results.every((r) => r.ok) && failed === 0 && passed > 0 ? 0 : 1;
 } catch (error) {
-  console.error(`\n\x1b[31mThe tests could not run:\x1b[0m ${error instanceof Error ? error.message : error}`);
+  console.error(
+    `\n\x1b[31mThe tests could not run:\x1b[0m ${error instanceof Error ? error.message : error}`,
+  );
   exitCode = 1;
 } finally {
   for (const service of services) service.stop();

@@ -27,6 +27,11 @@ const routeProbes: Record<string, Record<string, { path: string; expect: number;
   '/api/checkout/options': { GET: { path: '/api/checkout/options?holdId=not-a-uuid', expect: 400 } },
   '/api/webhooks/stripe': { POST: { path: '/api/webhooks/stripe', expect: 400, body: { id: 'evt_forged' } } },
   '/api/orders/[number]': { GET: { path: '/api/orders/DM-0000', expect: 404 } },
+  '/api/uploadthing': {
+    GET: { path: '/api/uploadthing', expect: 200 },
+    POST: { path: '/api/uploadthing', expect: 400 },
+  },
+  '/media/[...path]': { GET: { path: '/media/00000000000000000000000000000000/320.webp', expect: 404 } },
 };
 
 test.describe('who may open what', () => {

@@ -11,7 +11,7 @@ export default async function HomePage() {
   const [{ studio, designs }, drops] = await Promise.all([listDesignsForHome(), listDrops()]);
   const now = requestTime();
   const open = drops.filter((d) => new Date(d.earlyAccessAt ?? d.opensAt).getTime() <= now && new Date(d.closesAt).getTime() > now);
-  const next = drops.find((d) => new Date(d.earlyAccessAt ?? d.opensAt).getTime() > now);
+  const upcoming = drops.filter((d) => new Date(d.earlyAccessAt ?? d.opensAt).getTime() > now);
 
   return (
     <>
@@ -28,7 +28,7 @@ export default async function HomePage() {
         </p>
       </section>
 
-      <DropsStrip next={next} open={open} now={now} />
+      <DropsStrip upcoming={upcoming} open={open} now={now} />
 
       <section id="designs" aria-labelledby="designs-title" className="scroll-mt-8">
         <h2 id="designs-title" className="text-3xl font-medium">

@@ -5,6 +5,9 @@ import { usePathname } from 'next/navigation';
 
 const links = [
   { href: '/workshop', label: 'Overview' },
+  { href: '/workshop/designs', label: 'Designs' },
+  { href: '/workshop/molds', label: 'Molds' },
+  { href: '/workshop/plan', label: 'Plan' },
   { href: '/workshop/batches', label: 'Batches' },
   { href: '/workshop/orders', label: 'Orders' },
   { href: '/workshop/oversold', label: 'Oversold' },

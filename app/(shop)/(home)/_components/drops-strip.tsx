@@ -1,10 +1,15 @@
 import Image from 'next/image';
 import Link from 'next/link';
 import { Countdown } from '@/components/countdown';
+import { LocalTime } from '@/components/local-time';
 import type { DropSummary } from '@/lib/drops/catalogue';
 
-/** The next drop with its countdown, and the drops open now. */
-export function DropsStrip({ next, open, now }: { next: DropSummary | undefined; open: DropSummary[]; now: number }) {
+/** How many of the later drops (after the next one) the home page lists. */
+const LATER_SHOWN = 4;
+
+/** The drops open now, the next drop with its countdown, and the ones announced after it with their opening time. */
+export function DropsStrip({ upcoming, open, now }: { upcoming: DropSummary[]; open: DropSummary[]; now: number }) {
+  const [next, ...later] = upcoming;
   if (!next && open.length === 0) return null;
   return (
     <section aria-labelledby="drops-title" className="mb-16">
@@ -24,6 +29,14 @@ export function DropsStrip({ next, open, now }: { next: DropSummary | undefined;
           <DropCard key={drop.id} drop={drop} badge={new Date(drop.opensAt).getTime() > now ? 'Early access now' : 'Open now'}>
             <p className="mt-1 text-ink-soft">
               Closes in <Countdown at={drop.closesAt} />
+            </p>
+          </DropCard>
+        ))}
+        {later.slice(0, LATER_SHOWN).map((drop) => (
+          <DropCard key={drop.id} drop={drop} badge="Coming up">
+            <p className="mt-1 text-ink-soft">
+              {drop.earlyAccessAt ? 'Early access from ' : 'Opens '}
+              <LocalTime at={drop.earlyAccessAt ?? drop.opensAt} />
             </p>
           </DropCard>
         ))}

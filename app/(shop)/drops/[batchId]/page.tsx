@@ -4,6 +4,7 @@ import { notFound } from 'next/navigation';
 import { getCurrentUser } from '@/lib/auth/session';
 import { getDrop } from '@/lib/drops/catalogue';
 import { batchIdSchema } from '@/lib/drops/schemas';
+import { BatchPhotos } from './_components/batch-photos';
 import { DropLive } from './_components/drop-live';
 
 type Props = { params: Promise<{ batchId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
@@ -48,6 +49,7 @@ export default async function DropPage({ params, searchParams }: Props) {
           </Link>
         </li>
       </ul>
+      <BatchPhotos photos={drop.photos} />
       <div className="mt-8">
         <DropLive drop={drop} signedIn={Boolean(user)} returnedFromCheckout={(await searchParams).checkout === 'cancelled'} />
       </div>

@@ -8,8 +8,10 @@ import { listDesignsForBatches, listWorkshopBatches } from '@/lib/drops/batches'
 import { utcToLocalInput } from '@/lib/drops/local-time';
 import { formatInZone } from '@/lib/drops/phase';
 import { batchIdSchema } from '@/lib/drops/schemas';
+import { listBatchPhotos } from '@/lib/photos/batch-photos';
 import { BatchForm } from '../_components/batch-form';
 import { CancelBatch } from '../_components/cancel-batch';
+import { BatchPhotosSection } from './_components/batch-photos-section';
 
 export const metadata: Metadata = { title: 'Batch' };
 
@@ -23,7 +25,7 @@ export default async function BatchPage({ params, searchParams }: Props) {
   const [batch] = await listWorkshopBatches(id.data);
   if (!batch) notFound();
   const query = await searchParams;
-  const designs = await listDesignsForBatches();
+  const [designs, photos] = await Promise.all([listDesignsForBatches(), listBatchPhotos(batch.id)]);
   const zone = batch.timeZone;
   const started = batch.status === 'scheduled' && new Date(batch.earlyAccessAt ?? batch.opensAt).getTime() <= requestTime();
   const owner = hasRole(user.role, 'owner');
@@ -73,6 +75,7 @@ export default async function BatchPage({ params, searchParams }: Props) {
           {!owner ? <dd className="col-span-2 text-ink-soft">Only the maker can change a batch.</dd> : null}
         </dl>
       )}
+      <BatchPhotosSection batch={batch} photos={photos} owner={owner} />
     </>
   );
 }
