@@ -50,6 +50,8 @@ try {
   // The photos are files, not rows: make sure they exist even when the rows were seeded earlier.
   run(process.execPath, ['seeders/support/render-demo-art.cjs']);
   run(process.execPath, ['seeders/support/retime-demo-drops.cjs'], { env: { ...process.env, DATABASE_URL: databaseUrl } });
+  // Next's data cache lives on disk and outlives restarts; the drops were just moved, so start it afresh.
+  fs.rmSync(path.join(root, '.next/cache/fetch-cache'), { recursive: true, force: true });
   // Cached drop pages from an earlier run would still show the old opening time.
   fs.rmSync(path.join(root, '.next/cache/fetch-cache'), { recursive: true, force: true });
 

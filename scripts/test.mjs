@@ -93,6 +93,9 @@ try {
   const e2eUrl = postgres.urlFor('demold_e2e');
   await ensureDatabase(e2eUrl, { fresh: true });
   fs.rmSync(path.join(root, '.data/media-e2e'), { recursive: true, force: true });
+  // Next's data cache lives on disk and outlives builds: from a run against an earlier database it would show
+  // that database's designs and drops.
+  fs.rmSync(path.join(root, '.next/cache/fetch-cache'), { recursive: true, force: true });
   sequelizeCli(e2eUrl, ['db:migrate']);
   sequelizeCli(e2eUrl, ['db:seed:all']);
   const mail = await startFakeMail({ smtpPort: 1125, webPort: 1180, quiet: true });

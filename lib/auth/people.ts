@@ -4,6 +4,7 @@ import { Op, Transaction } from 'sequelize';
 import { z } from 'zod';
 import { StaffInvitationEmail } from '@/emails/staff-invitation';
 import { AppError } from '@/lib/api/errors';
+import { writeAudit } from '@/lib/audit/log';
 import { getDb } from '@/lib/db/connection';
 import { getEnv } from '@/lib/env';
 import { sendEmail } from '@/lib/mail/send';
@@ -42,6 +43,9 @@ const lastOwner = () =>
  * Changes a person's studio role (or takes it away, `customer`) in one transaction that locks every owner,
  * so two owners demoting each other at the same moment cannot leave the studio without one.
  */
+const roleWords = (role: Role) => roleLabels[role].toLowerCase();
+const personLabel = (person: { name: string | null; email: string }) => person.name?.trim() || person.email;
+
 async function setRole(actor: CurrentUser, userId: string, role: Role): Promise<StudioPerson> {
   const { sequelize, models } = getDb();
   return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
@@ -57,8 +61,25 @@ async function setRole(actor: CurrentUser, userId: string, role: Role): Promise<
     const target = await models.User.findOne({ where: { id: userId }, lock: transaction.LOCK.UPDATE, transaction });
     if (!target || target.role === 'customer') throw new AppError('not_found', 'That person is not in the studio.', 404);
     if (target.role === 'owner' && role !== 'owner' && owners.length <= 1) throw lastOwner();
+    const previous = target.role;
     target.role = role;
     await target.save({ transaction });
+    if (previous !== role) {
+      await writeAudit(
+        {
+          actor,
+          action: role === 'customer' ? 'person.removed' : 'person.role_changed',
+          subject: { type: 'user', id: target.id },
+          summary:
+            role === 'customer'
+              ? `Removed ${personLabel(target)} (${roleWords(previous)}) from the studio`
+              : `Changed ${personLabel(target)} from ${roleWords(previous)} to ${roleWords(role)}`,
+          before: { role: previous },
+          after: { role },
+        },
+        transaction,
+      );
+    }
     if (role === 'customer') {
       // Losing the studio role ends their signed-in sessions too.
       await models.AuthSession.destroy({ where: { userId: target.id }, transaction });
@@ -80,17 +101,34 @@ export async function invitePerson(
   actor: CurrentUser,
   input: z.infer<typeof invitePersonSchema>,
 ): Promise<{ person: StudioPerson; emailed: boolean }> {
-  const { models } = getDb();
-  const [user] = await models.User.findOrCreate({
-    where: { email: input.email },
-    defaults: { email: input.email, name: input.name ?? null, emailVerified: null, role: 'customer' },
+  const { models, sequelize } = getDb();
+  const user = await sequelize.transaction(async (transaction) => {
+    const [found] = await models.User.findOrCreate({
+      where: { email: input.email },
+      defaults: { email: input.email, name: input.name ?? null, emailVerified: null, role: 'customer' },
+      transaction,
+    });
+    // Locked, so two owners inviting the same address at once give one studio role, logged once.
+    const person = await found.reload({ lock: transaction.LOCK.UPDATE, transaction });
+    if (person.role !== 'customer') {
+      throw new AppError('already_in_studio', `${input.email} is already in the studio as ${roleWords(person.role)}.`, 409);
+    }
+    person.role = input.role;
+    if (!person.name && input.name) person.name = input.name;
+    await person.save({ transaction });
+    await writeAudit(
+      {
+        actor,
+        action: 'person.invited',
+        subject: { type: 'user', id: person.id },
+        summary: `Invited ${personLabel(person)}${person.name ? ` (${person.email})` : ''} as ${roleWords(input.role)}`,
+        before: { role: 'customer' },
+        after: { role: input.role },
+      },
+      transaction,
+    );
+    return person;
   });
-  if (user.role !== 'customer') {
-    throw new AppError('already_in_studio', `${input.email} is already in the studio as ${roleLabels[user.role as Role].toLowerCase()}.`, 409);
-  }
-  user.role = input.role;
-  if (!user.name && input.name) user.name = input.name;
-  await user.save();
 
   const studio = await models.Studio.findOne({ order: [['createdAt', 'ASC']] });
   let emailed = true;
@@ -113,14 +151,28 @@ export async function invitePerson(
 
 /** For the `studio:owner` command: makes (or promotes) the given address an owner. */
 export async function makeOwner(email: string): Promise<{ created: boolean }> {
-  const { models } = getDb();
-  const [user, created] = await models.User.findOrCreate({
-    where: { email },
-    defaults: { email, name: null, emailVerified: null, role: 'owner' },
-  });
-  if (!created && user.role !== 'owner') {
+  const { models, sequelize } = getDb();
+  return sequelize.transaction(async (transaction) => {
+    const [user, created] = await models.User.findOrCreate({
+      where: { email },
+      defaults: { email, name: null, emailVerified: null, role: 'owner' },
+      transaction,
+    });
+    const previous: Role = created ? 'customer' : user.role;
+    if (previous === 'owner') return { created };
     user.role = 'owner';
-    await user.save();
-  }
-  return { created };
+    await user.save({ transaction });
+    await writeAudit(
+      {
+        actor: 'system',
+        action: 'person.role_changed',
+        subject: { type: 'user', id: user.id },
+        summary: `Made ${personLabel(user)} ${roleWords('owner')} from the command line`,
+        before: { role: previous },
+        after: { role: 'owner' },
+      },
+      transaction,
+    );
+    return { created };
+  });
 }

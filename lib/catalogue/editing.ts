@@ -2,6 +2,7 @@ import 'server-only';
 import type { Transaction } from 'sequelize';
 import { z } from 'zod';
 import { AppError } from '@/lib/api/errors';
+import { writeAudit, type AuditActor } from '@/lib/audit/log';
 import { slugify } from '@/lib/catalogue/slug';
 import { inTransaction, sql } from '@/lib/db/sql';
 import { formatMoney, minorUnitDigits } from '@/lib/money';
@@ -502,8 +503,8 @@ async function lockFinish(finishId: string, transaction: Transaction) {
   const [owner] = await sql<{ design_id: string }>(`SELECT design_id FROM finishes WHERE id = $1`, [finishId], transaction);
   if (!owner) throw finishNotFound();
   const design = await lockDesign(owner.design_id, transaction);
-  const [finish] = await sql<{ id: string; slug: string; name: string; status: DesignStatus }>(
-    `SELECT id, slug, name, status FROM finishes WHERE id = $1 AND design_id = $2 FOR UPDATE`,
+  const [finish] = await sql<{ id: string; slug: string; name: string; status: DesignStatus; price_difference_minor: number }>(
+    `SELECT id, slug, name, status, price_difference_minor FROM finishes WHERE id = $1 AND design_id = $2 FOR UPDATE`,
     [finishId, design.id],
     transaction,
   );
@@ -587,8 +588,14 @@ export async function createDesign(input: DesignInput): Promise<CatalogueChange 
   });
 }
 
+/** Who changes the catalogue: the signed-in owner. Price and status changes go to the audit log. */
+type Actor = Exclude<AuditActor, 'system'>;
+
+const money = (amountMinor: number, currency: string) => formatMoney({ amountMinor, currency });
+const signedMoney = (amountMinor: number, currency: string) => `${amountMinor < 0 ? '−' : '+'}${money(Math.abs(amountMinor), currency)}`;
+
 /** Saves the design's fields. A new slug moves its shop page, so both slugs are returned for refreshing. */
-export async function updateDesign(input: DesignUpdateInput): Promise<CatalogueChange & { slug: string; previousSlug: string }> {
+export async function updateDesign(actor: Actor, input: DesignUpdateInput): Promise<CatalogueChange & { slug: string; previousSlug: string }> {
   return inTransaction(async (transaction) => {
     const design = await lockDesign(input.designId, transaction);
     if (input.currency !== design.currency) throw currencyChanged('basePrice');
@@ -610,6 +617,19 @@ export async function updateDesign(input: DesignUpdateInput): Promise<CatalogueC
       if (isUniqueViolation(error, 'designs_studio_slug_unique')) throw designSlugTaken(input.slug);
       throw error;
     }
+    if (input.basePriceMinor !== design.base_price_minor) {
+      await writeAudit(
+        {
+          actor,
+          action: 'design.price_changed',
+          subject: { type: 'design', id: design.id },
+          summary: `Changed the price of ${input.name} from ${money(design.base_price_minor, design.currency)} to ${money(input.basePriceMinor, design.currency)}`,
+          before: { currency: design.currency, basePriceMinor: design.base_price_minor },
+          after: { currency: design.currency, basePriceMinor: input.basePriceMinor },
+        },
+        transaction,
+      );
+    }
     return { designId: design.id, designName: input.name, slug: input.slug, previousSlug: design.slug, slugs: [design.slug, input.slug] };
   });
 }
@@ -619,6 +639,9 @@ export const statusWords: Record<DesignStatus, string> = {
   published: 'published',
   retired: 'retired',
 };
+
+const statusSummary = (status: DesignStatus, name: string) =>
+  status === 'draft' ? `Put ${name} back to draft` : `${status === 'published' ? 'Published' : 'Retired'} ${name}`;
 
 /** Draft → published → retired → draft: the only ways a design or finish moves. */
 const nextStatuses: Record<DesignStatus, DesignStatus[]> = {
@@ -645,7 +668,7 @@ function refuseMove(name: string, from: DesignStatus, to: DesignStatus): AppErro
  * Moves a design along draft → published → retired → draft. Publishing needs a published finish and a
  * photo the shop can show, and stamps `published_at`.
  */
-export async function setDesignStatus(input: z.output<typeof designStatusSchema>): Promise<CatalogueChange & { status: DesignStatus }> {
+export async function setDesignStatus(actor: Actor, input: z.output<typeof designStatusSchema>): Promise<CatalogueChange & { status: DesignStatus }> {
   return inTransaction(async (transaction) => {
     const design = await lockDesign(input.designId, transaction);
     if (!nextStatuses[design.status].includes(input.status)) throw refuseMove(design.name, design.status, input.status);
@@ -681,6 +704,17 @@ export async function setDesignStatus(input: z.output<typeof designStatusSchema>
       [design.id, input.status],
       transaction,
     );
+    await writeAudit(
+      {
+        actor,
+        action: 'design.status_changed',
+        subject: { type: 'design', id: design.id },
+        summary: statusSummary(input.status, design.name),
+        before: { status: design.status },
+        after: { status: input.status },
+      },
+      transaction,
+    );
     return { designId: design.id, designName: design.name, slugs: [design.slug], status: input.status };
   });
 }
@@ -708,7 +742,7 @@ export async function addFinish(input: FinishInput): Promise<CatalogueChange & {
 }
 
 /** Saves one finish's fields. */
-export async function updateFinish(input: FinishUpdateInput): Promise<CatalogueChange & { finishName: string }> {
+export async function updateFinish(actor: Actor, input: FinishUpdateInput): Promise<CatalogueChange & { finishName: string }> {
   return inTransaction(async (transaction) => {
     const { design, finish } = await lockFinish(input.finishId, transaction);
     if (input.currency !== design.currency) throw currencyChanged('priceDifference');
@@ -724,6 +758,19 @@ export async function updateFinish(input: FinishUpdateInput): Promise<CatalogueC
       [finish.id, ...finishValues(input)],
       transaction,
     );
+    if (input.priceDifferenceMinor !== finish.price_difference_minor) {
+      await writeAudit(
+        {
+          actor,
+          action: 'finish.price_changed',
+          subject: { type: 'finish', id: finish.id },
+          summary: `Changed the price difference of ${design.name} — ${input.name} from ${signedMoney(finish.price_difference_minor, design.currency)} to ${signedMoney(input.priceDifferenceMinor, design.currency)}`,
+          before: { currency: design.currency, priceDifferenceMinor: finish.price_difference_minor },
+          after: { currency: design.currency, priceDifferenceMinor: input.priceDifferenceMinor },
+        },
+        transaction,
+      );
+    }
     await touchDesign(design.id, transaction);
     return { designId: design.id, designName: design.name, slugs: [design.slug], finishName: input.name };
   });
@@ -734,6 +781,7 @@ export async function updateFinish(input: FinishUpdateInput): Promise<CatalogueC
  * design is published too; a published design keeps at least one published finish.
  */
 export async function setFinishStatus(
+  actor: Actor,
   input: z.output<typeof finishStatusSchema>,
 ): Promise<CatalogueChange & { finishName: string; status: DesignStatus; designStatus: DesignStatus }> {
   return inTransaction(async (transaction) => {
@@ -741,6 +789,17 @@ export async function setFinishStatus(
     if (!nextStatuses[finish.status].includes(input.status)) throw refuseMove(finish.name, finish.status, input.status);
     await sql(`UPDATE finishes SET status = $2, updated_at = now() WHERE id = $1 RETURNING id`, [finish.id, input.status], transaction);
     await keepShowable(design, `${input.status === 'retired' ? 'retiring' : 'changing'} ${finish.name}`, transaction);
+    await writeAudit(
+      {
+        actor,
+        action: 'finish.status_changed',
+        subject: { type: 'finish', id: finish.id },
+        summary: statusSummary(input.status, `${design.name} — ${finish.name}`),
+        before: { status: finish.status },
+        after: { status: input.status },
+      },
+      transaction,
+    );
     await touchDesign(design.id, transaction);
     return {
       designId: design.id,

@@ -1,11 +1,12 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { AppError } from '@/lib/api/errors';
+import { writeAudit, type AuditActor } from '@/lib/audit/log';
 import { inTransaction, sql } from '@/lib/db/sql';
 import type { BatchForm } from './batch-schemas';
 import { localTimeToUtc } from './local-time';
 
-type Actor = { id: string };
+type Actor = Exclude<AuditActor, 'system'>;
 
 const fieldError = (field: string, message: string, code = 'invalid_input') =>
   new AppError(code, message, 422, { fields: { [field]: [message] } });
@@ -59,6 +60,7 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
     const [{ now }] = (await sql<{ now: Date }>(`SELECT now() AS now`, [], transaction)) as [{ now: Date }];
     const status = form.intent === 'schedule' ? 'scheduled' : 'draft';
     let batchId = form.batchId;
+    let previousStatus: string | null = null;
     if (!batchId) {
       if (status === 'scheduled' && opensAt <= now) throw fieldError('opensAt', 'A new batch must open in the future.');
       const [created] = await sql<{ id: string }>(
@@ -69,9 +71,25 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
       );
       batchId = created!.id;
     } else {
-      await updateExisting(batchId, design.id, form, { status, opensAt, closesAt, earlyAccessAt, now }, transaction);
+      previousStatus = await updateExisting(batchId, design.id, form, { status, opensAt, closesAt, earlyAccessAt, now }, transaction);
     }
-    await saveStock(batchId, form.quantities, transaction);
+    const stock = await saveStock(batchId, form.quantities, transaction);
+    const total = Object.values(stock.after).reduce((sum, n) => sum + n, 0);
+    const masks = `${total} mask${total === 1 ? '' : 's'}`;
+    await writeAudit(
+      {
+        actor,
+        action: 'batch.saved',
+        subject: { type: 'batch', id: batchId },
+        summary:
+          status === 'scheduled'
+            ? `Scheduled ${form.name} of ${design.name} (${masks})`
+            : `Saved ${form.name} of ${design.name} as a draft (${masks})`,
+        before: previousStatus === null ? null : { status: previousStatus, stock: stock.before },
+        after: { status, stock: stock.after },
+      },
+      transaction,
+    );
     const warning =
       form.plannedShipBy && form.shipBy < form.plannedShipBy
         ? `The ship-by date ${form.shipBy} is earlier than the plan's ${form.plannedShipBy}: buyers will be promised a date the plan says is not reachable.`
@@ -91,7 +109,7 @@ async function updateExisting(
   form: BatchForm,
   t: { status: string; opensAt: Date; closesAt: Date; earlyAccessAt: Date | null; now: Date },
   transaction: Transaction,
-): Promise<void> {
+): Promise<string> {
   const [current] = await sql<{ id: string; design_id: string; status: string; opens_at: Date; closes_at: Date; early_access_at: Date | null }>(
     `SELECT id, design_id, status, opens_at, closes_at, early_access_at FROM batches WHERE id = $1 FOR UPDATE`,
     [batchId],
@@ -117,9 +135,13 @@ async function updateExisting(
     [batchId, form.name, t.status, form.perBuyerLimit, form.holdMinutes, t.earlyAccessAt, t.opensAt, t.closesAt, form.shipBy, form.plannedShipBy ?? null, form.announcement],
     transaction,
   );
+  return current.status;
 }
 
-async function saveStock(batchId: string, quantities: Record<string, number>, transaction: Transaction): Promise<void> {
+/** Quantities by finish name, before and after the save, for the audit log. */
+type StockChange = { before: Record<string, number>; after: Record<string, number> };
+
+async function saveStock(batchId: string, quantities: Record<string, number>, transaction: Transaction): Promise<StockChange> {
   const existing = await sql<{ id: string; finish_id: string; quantity: number; held: number; sold: number; name: string }>(
     `SELECT s.id, s.finish_id, s.quantity, s.held, s.sold, f.name FROM batch_stock s JOIN finishes f ON f.id = s.finish_id WHERE s.batch_id = $1 FOR UPDATE OF s`,
     [batchId],
@@ -145,8 +167,16 @@ async function saveStock(batchId: string, quantities: Record<string, number>, tr
       await sql(`INSERT INTO batch_stock (batch_id, finish_id, quantity) VALUES ($1, $2, $3)`, [batchId, finishId, quantity], transaction);
     }
   }
-  const [{ total }] = (await sql<{ total: number }>(`SELECT coalesce(sum(quantity), 0)::int AS total FROM batch_stock WHERE batch_id = $1`, [batchId], transaction)) as [{ total: number }];
-  if (total === 0) throw fieldError('quantities', 'Put at least one mask in the batch.');
+  const after = await sql<{ name: string; quantity: number }>(
+    `SELECT f.name, s.quantity FROM batch_stock s JOIN finishes f ON f.id = s.finish_id WHERE s.batch_id = $1 ORDER BY f.position, f.name`,
+    [batchId],
+    transaction,
+  );
+  if (after.reduce((sum, row) => sum + row.quantity, 0) === 0) throw fieldError('quantities', 'Put at least one mask in the batch.');
+  return {
+    before: Object.fromEntries(existing.map((row) => [row.name, row.quantity])),
+    after: Object.fromEntries(after.map((row) => [row.name, row.quantity])),
+  };
 }
 
 /**
@@ -169,7 +199,17 @@ export async function cancelBatch(actor: Actor, batchId: string): Promise<{ name
     const holds = await sql<{ id: string; user_id: string }>(`SELECT id, user_id FROM holds WHERE batch_id = $1 AND state = 'active' ORDER BY id`, [batchId], transaction);
     for (const hold of holds) await sql(`SELECT release_hold($1, $2) AS released`, [hold.id, hold.user_id], transaction);
     await sql(`UPDATE batches SET status = 'cancelled', cancelled_at = now(), updated_at = now() WHERE id = $1`, [batchId], transaction);
-    void actor;
+    await writeAudit(
+      {
+        actor,
+        action: 'batch.cancelled',
+        subject: { type: 'batch', id: batch.id },
+        summary: `Cancelled ${batch.name}${holds.length ? ` and let go of ${holds.length} running hold${holds.length === 1 ? '' : 's'}` : ''}`,
+        before: { status: batch.status, runningHolds: holds.length },
+        after: { status: 'cancelled', runningHolds: 0 },
+      },
+      transaction,
+    );
     return { name: batch.name, releasedHolds: holds.length };
   });
 }

@@ -1,12 +1,17 @@
 import 'server-only';
 import { AppError } from '@/lib/api/errors';
-import { sql } from '@/lib/db/sql';
+import { writeAudit, type AuditActor } from '@/lib/audit/log';
+import { inTransaction, sql } from '@/lib/db/sql';
 import { requestTime } from '@/lib/clock';
 import { todayInZone } from '@/lib/planner/calendar';
 import type { AddMoldInput, RecordPullsInput, RetireMoldInput } from './schemas';
 
 // The studio's molds: each design's silicone molds with their jackets, and their life in pulls. Every change is
-// one statement, so two people recording pulls at once both count.
+// one statement (with its audit entry in the same transaction), so two people recording pulls at once both count.
+
+type Actor = Exclude<AuditActor, 'system'>;
+
+const pullWords = (n: number) => (n === 1 ? '1 pull' : `${n} pulls`);
 
 export type MoldView = {
   id: string;
@@ -97,7 +102,7 @@ export async function listMoldsOfDesign(designId: string, { includeRetired = fal
   return rows.map(toView);
 }
 
-export async function addMold(input: AddMoldInput): Promise<MoldView> {
+export async function addMold(actor: Actor, input: AddMoldInput): Promise<MoldView> {
   const [design] = await sql<{ id: string; name: string; time_zone: string }>(
     `SELECT d.id, d.name, s.time_zone FROM designs d JOIN studios s ON s.id = d.studio_id
       WHERE d.id = $1 AND s.id = (SELECT id FROM studios ORDER BY created_at LIMIT 1)`,
@@ -111,12 +116,26 @@ export async function addMold(input: AddMoldInput): Promise<MoldView> {
     });
   }
   try {
-    const [row] = await sql<MoldRow>(
-      `INSERT INTO molds AS m (design_id, label, made_on, pulls_so_far, expected_life_pulls, notes)
-       VALUES ($1, $2, $3::date, $4, $5, $6) RETURNING ${moldColumns}`,
-      [design.id, input.label, input.madeOn, input.pullsSoFar, input.expectedLifePulls, input.notes],
-    );
-    return toView(row!);
+    return await inTransaction(async (transaction) => {
+      const [row] = await sql<MoldRow>(
+        `INSERT INTO molds AS m (design_id, label, made_on, pulls_so_far, expected_life_pulls, notes)
+         VALUES ($1, $2, $3::date, $4, $5, $6) RETURNING ${moldColumns}`,
+        [design.id, input.label, input.madeOn, input.pullsSoFar, input.expectedLifePulls, input.notes],
+        transaction,
+      );
+      const mold = toView(row!);
+      await writeAudit(
+        {
+          actor,
+          action: 'mold.added',
+          subject: { type: 'mold', id: mold.id },
+          summary: `Added ${mold.label} for ${design.name} (${pullWords(mold.pullsSoFar)} of ${mold.expectedLifePulls} used)`,
+          after: { madeOn: mold.madeOn, pullsSoFar: mold.pullsSoFar, expectedLifePulls: mold.expectedLifePulls },
+        },
+        transaction,
+      );
+      return mold;
+    });
   } catch (error) {
     const original = (error as { original?: { code?: string; constraint?: string } }).original;
     if (original?.code === '23505' && original.constraint === 'molds_design_label_unique') {
@@ -135,23 +154,57 @@ async function explainMissing(moldId: string): Promise<never> {
 }
 
 /** Adds pulls to a mold's count in one statement; a retired mold is refused (409). */
-export async function recordPulls(input: RecordPullsInput): Promise<MoldView> {
-  const [row] = await sql<MoldRow>(
-    `UPDATE molds AS m SET pulls_so_far = m.pulls_so_far + $2, updated_at = now()
-      WHERE m.id = $1 AND m.retired_at IS NULL RETURNING ${moldColumns}`,
-    [input.moldId, input.pulls],
-  );
-  return row ? toView(row) : explainMissing(input.moldId);
+export async function recordPulls(actor: Actor, input: RecordPullsInput): Promise<MoldView> {
+  const mold = await inTransaction(async (transaction) => {
+    const [row] = await sql<MoldRow>(
+      `UPDATE molds AS m SET pulls_so_far = m.pulls_so_far + $2, updated_at = now()
+        WHERE m.id = $1 AND m.retired_at IS NULL RETURNING ${moldColumns}`,
+      [input.moldId, input.pulls],
+      transaction,
+    );
+    if (!row) return null;
+    const view = toView(row);
+    await writeAudit(
+      {
+        actor,
+        action: 'mold.pulls_recorded',
+        subject: { type: 'mold', id: view.id },
+        summary: `Recorded ${pullWords(input.pulls)} on ${view.label} (${view.pullsSoFar} of ${view.expectedLifePulls})`,
+        before: { pullsSoFar: view.pullsSoFar - input.pulls },
+        after: { pullsSoFar: view.pullsSoFar },
+      },
+      transaction,
+    );
+    return view;
+  });
+  return mold ?? explainMissing(input.moldId);
 }
 
 /** Retires a mold: it keeps its record and count but takes no more pulls and leaves the planner's molds. */
-export async function retireMold(input: RetireMoldInput): Promise<MoldView> {
-  const [row] = await sql<MoldRow>(
-    `UPDATE molds AS m SET retired_at = now(), updated_at = now()
-      WHERE m.id = $1 AND m.retired_at IS NULL RETURNING ${moldColumns}`,
-    [input.moldId],
-  );
-  if (row) return toView(row);
+export async function retireMold(actor: Actor, input: RetireMoldInput): Promise<MoldView> {
+  const mold = await inTransaction(async (transaction) => {
+    const [row] = await sql<MoldRow>(
+      `UPDATE molds AS m SET retired_at = now(), updated_at = now()
+        WHERE m.id = $1 AND m.retired_at IS NULL RETURNING ${moldColumns}`,
+      [input.moldId],
+      transaction,
+    );
+    if (!row) return null;
+    const view = toView(row);
+    await writeAudit(
+      {
+        actor,
+        action: 'mold.retired',
+        subject: { type: 'mold', id: view.id },
+        summary: `Retired ${view.label} after ${pullWords(view.pullsSoFar)} of ${view.expectedLifePulls}`,
+        before: { retired: false },
+        after: { retired: true, pullsSoFar: view.pullsSoFar },
+      },
+      transaction,
+    );
+    return view;
+  });
+  if (mold) return mold;
   const [existing] = await sql<{ label: string }>(`SELECT label FROM molds WHERE id = $1`, [input.moldId]);
   if (!existing) throw moldNotFound();
   throw new AppError('mold_retired', `${existing.label} is already retired.`, 409);

@@ -112,15 +112,6 @@ export async function listBuyerOrders(userId: string): Promise<OrderSummary[]> {
   return rows.map(toSummary);
 }
 
-/** The workshop's list of paid orders, newest first (filters and paging come with the orders table). */
-export async function listWorkshopOrders({ limit = 200 }: { limit?: number } = {}): Promise<OrderSummary[]> {
-  const rows = await sql<SummaryRow>(
-    `${summarySelect} WHERE o.paid_at IS NOT NULL GROUP BY o.id, b.name ORDER BY o.paid_at DESC LIMIT $1`,
-    [limit],
-  );
-  return rows.map(toSummary);
-}
-
 export type OversoldLine = {
   lineId: string; orderId: string; orderNumber: string; designName: string; finishName: string; batchName: string; unitPriceMinor: number;
   currency: string; email: string; buyerName: string | null; reason: 'stock_gone' | 'over_buyer_limit'; paidAt: string; refundPending: boolean;

@@ -1,15 +1,17 @@
 import 'server-only';
 import type Stripe from 'stripe';
 import { AppError } from '@/lib/api/errors';
+import { writeAudit, type AuditActor } from '@/lib/audit/log';
 import { toStripeAmount } from '@/lib/checkout/pricing';
 import { inTransaction, sql } from '@/lib/db/sql';
 import { kickMail } from '@/lib/mail/outbox';
+import { formatMoney } from '@/lib/money';
 import { getStripe } from '@/lib/payments/stripe';
 import { recordOrderEvent } from './checkout';
 import { upsertRefund } from './payments';
-import type { RefundInput } from './schemas';
+import { refundReasonLabels, type RefundInput } from './schemas';
 
-type Actor = { id: string };
+type Actor = Exclude<AuditActor, 'system'>;
 
 export type RefundResult = { refundId: string; status: 'succeeded' | 'pending' | 'failed'; amountMinor: number; message: string };
 
@@ -75,6 +77,18 @@ export async function refundOrder(actor: Actor, input: RefundInput): Promise<Ref
       transaction,
     );
     await recordOrderEvent(order.id, 'refund_requested', { actor: actor.id, data: { refundId: row!.id, amountMinor: amount, reason: input.reason, lines: lineIds.length } }, transaction);
+    const masks = lineIds.length === 0 ? '' : ` (${lineIds.length === 1 ? '1 mask' : `${lineIds.length} masks`})`;
+    await writeAudit(
+      {
+        actor,
+        action: 'order.refunded',
+        subject: { type: 'order', id: order.id },
+        summary: `Refunded ${formatMoney({ amountMinor: amount, currency: order.currency })} of ${order.number}${masks}`,
+        before: { currency: order.currency, refundedMinor: committed, leftToRefundMinor: left },
+        after: { currency: order.currency, refundedMinor: committed + amount, leftToRefundMinor: left - amount, masks: lineIds.length, reason: refundReasonLabels[input.reason], restock: input.restock },
+      },
+      transaction,
+    );
     return row!;
   });
   return sendRefund(pending);
@@ -101,8 +115,26 @@ async function sendRefund(row: PendingRefund): Promise<RefundResult> {
     if (stripeError.type === 'StripeInvalidRequestError') {
       // Stripe refused it for good (already refunded, amount too large): record that and say it.
       await inTransaction(async (transaction) => {
-        await sql(`UPDATE refunds SET status = 'failed', failure = $2, updated_at = now() WHERE id = $1 AND status = 'pending'`, [row.id, stripeError.message ?? stripeError.code ?? 'refused'], transaction);
+        const failed = await sql<{ id: string }>(
+          `UPDATE refunds SET status = 'failed', failure = $2, updated_at = now() WHERE id = $1 AND status = 'pending' RETURNING id`,
+          [row.id, stripeError.message ?? stripeError.code ?? 'refused'],
+          transaction,
+        );
         if (row.order_id) await recordOrderEvent(row.order_id, 'refund_failed', { data: { refundId: row.id, code: stripeError.code ?? null } }, transaction);
+        // The log said "Refunded" when the owner asked; it says so too when the money did not go back.
+        if (failed.length > 0 && row.order_id) {
+          await writeAudit(
+            {
+              actor: 'system',
+              action: 'order.refund_failed',
+              subject: { type: 'order', id: row.order_id },
+              summary: `Stripe refused the refund of ${formatMoney({ amountMinor: row.amount_minor, currency: row.currency })} of ${row.number ?? 'an order'}: nothing was paid back`,
+              before: { refundStatus: 'pending' },
+              after: { refundStatus: 'failed', reason: stripeError.message ?? stripeError.code ?? 'refused' },
+            },
+            transaction,
+          );
+        }
       });
       throw new AppError('refund_refused', `Stripe refused the refund: ${stripeError.message ?? 'no reason given'}`, 422);
     }
@@ -139,15 +171,30 @@ export async function retryPendingRefunds(olderThanSeconds = 30): Promise<number
 /** The maker will cast one more for an oversold line: the batch grows by one and the line counts as sold. */
 export async function confirmExtraCast(actor: Actor, lineId: string): Promise<void> {
   await inTransaction(async (transaction) => {
-    const [line] = await sql<{ id: string; order_id: string; batch_stock_id: string; state: string }>(
-      `SELECT l.id, l.order_id, l.batch_stock_id, o.state FROM order_lines l JOIN orders o ON o.id = l.order_id
+    const [line] = await sql<{ id: string; order_id: string; batch_stock_id: string; state: string; number: string; design_name: string; finish_name: string }>(
+      `SELECT l.id, l.order_id, l.batch_stock_id, o.state, o.number, l.design_name, l.finish_name FROM order_lines l JOIN orders o ON o.id = l.order_id
         WHERE l.id = $1 AND l.oversold AND l.oversold_resolution IS NULL AND NOT l.refunded FOR UPDATE OF l, o`,
       [lineId],
       transaction,
     );
     if (!line) throw new AppError('line_not_oversold', 'That line is not waiting for a decision any more: it was refunded or already confirmed.', 409);
-    await sql(`UPDATE batch_stock SET quantity = quantity + 1, sold = sold + 1, updated_at = now() WHERE id = $1`, [line.batch_stock_id], transaction);
+    const [stock] = await sql<{ quantity: number; sold: number }>(
+      `UPDATE batch_stock SET quantity = quantity + 1, sold = sold + 1, updated_at = now() WHERE id = $1 RETURNING quantity, sold`,
+      [line.batch_stock_id],
+      transaction,
+    );
     await sql(`UPDATE order_lines SET oversold_resolution = 'extra_cast', counted_in_stock = true, updated_at = now() WHERE id = $1`, [line.id], transaction);
     await recordOrderEvent(line.order_id, 'extra_cast_confirmed', { actor: actor.id, data: { lineId } }, transaction);
+    await writeAudit(
+      {
+        actor,
+        action: 'order.extra_cast_confirmed',
+        subject: { type: 'order', id: line.order_id },
+        summary: `Confirmed an extra ${line.design_name} — ${line.finish_name} will be cast for ${line.number}`,
+        before: { quantity: stock!.quantity - 1, sold: stock!.sold - 1 },
+        after: { quantity: stock!.quantity, sold: stock!.sold },
+      },
+      transaction,
+    );
   });
 }

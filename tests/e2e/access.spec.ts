@@ -27,6 +27,8 @@ const routeProbes: Record<string, Record<string, { path: string; expect: number;
   '/api/checkout/options': { GET: { path: '/api/checkout/options?holdId=not-a-uuid', expect: 400 } },
   '/api/webhooks/stripe': { POST: { path: '/api/webhooks/stripe', expect: 400, body: { id: 'evt_forged' } } },
   '/api/orders/[number]': { GET: { path: '/api/orders/DM-0000', expect: 404 } },
+  '/api/workshop/orders': { GET: { path: '/api/workshop/orders?perPage=10', expect: 200 } },
+  '/api/workshop/orders/export': { GET: { path: '/api/workshop/orders/export?state=refunded', expect: 200 } },
   '/api/uploadthing': {
     GET: { path: '/api/uploadthing', expect: 200 },
     POST: { path: '/api/uploadthing', expect: 400 },

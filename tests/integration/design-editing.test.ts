@@ -108,7 +108,7 @@ async function addPublishedFinish(designId: string, name = 'Old Bone') {
   const finish = await editing.addFinish(
     editing.finishFormSchema.parse({ designId, currency: 'EUR', name, priceDifference: '0', paintHours: '3' }),
   );
-  await editing.setFinishStatus({ finishId: finish.finishId, status: 'published' });
+  await editing.setFinishStatus(people.owner, { finishId: finish.finishId, status: 'published' });
   return finish.finishId;
 }
 
@@ -291,14 +291,14 @@ describe('publishing', () => {
     expect((await shop.listDesignsForHome()).designs.map((d) => d.slug)).not.toContain(design.slug);
     expect(await shop.getPublishedDesignBySlug(design.slug)).toBeNull();
 
-    await editing.setDesignStatus({ designId: design.id, status: 'published' });
+    await editing.setDesignStatus(people.owner, { designId: design.id, status: 'published' });
     const card = (await shop.listDesignsForHome()).designs.find((d) => d.slug === design.slug);
     // 240.50 in the cheapest published finish (Old Bone, +0); the draft Verdigris is not offered.
     expect(card?.fromPrice).toEqual({ amountMinor: 24050, currency: 'EUR' });
     expect(card?.finishNames).toEqual(['Old Bone']);
     expect((await shop.getPublishedDesignBySlug(design.slug))?.finishes.map((f) => f.name)).toEqual(['Old Bone']);
 
-    await editing.setDesignStatus({ designId: design.id, status: 'retired' });
+    await editing.setDesignStatus(people.owner, { designId: design.id, status: 'retired' });
     expect(await shop.getPublishedDesignBySlug(design.slug)).toBeNull();
   });
 
@@ -322,7 +322,7 @@ describe('publishing', () => {
     const design = await draftDesign('Crane');
     const finishId = await addPublishedFinish(design.id);
     const photoId = await addPhoto(design.id, finishId);
-    await editing.setDesignStatus({ designId: design.id, status: 'published' });
+    await editing.setDesignStatus(people.owner, { designId: design.id, status: 'published' });
 
     const retireFinish = refusal(await actions.setFinishStatusAction(null, form({ finishId, status: 'retired' })));
     expect(retireFinish.code).toBe('design_needs_finish');

@@ -1,4 +1,5 @@
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { CurrentUser } from '@/lib/auth/session';
 import { withAppDatabase } from './support/app-database';
 import { query } from './support/database';
 
@@ -7,6 +8,13 @@ import { query } from './support/database';
 const db = withAppDatabase('molds', { seed: true });
 
 const molds = () => import('@/lib/molds/molds');
+
+// Changes to molds are made by a signed-in owner (and logged under their name).
+let owner: CurrentUser;
+beforeAll(async () => {
+  const [row] = await query<{ id: string; email: string }>(db.current().url, `SELECT id, email FROM users WHERE role = 'owner' ORDER BY email LIMIT 1`);
+  owner = { id: row!.id, email: row!.email, name: 'Owner', role: 'owner' };
+});
 
 async function designId(slug: string): Promise<string> {
   const [row] = await query<{ id: string }>(db.current().url, `SELECT id FROM designs WHERE slug = $1`, [slug]);
@@ -40,9 +48,9 @@ describe('adding, counting and retiring molds', () => {
   it('adds a mold and refuses a second one of the same name for the design', async () => {
     const { addMold } = await molds();
     const hare = await designId('hare');
-    const mold = await addMold({ designId: hare, label: 'Hare C', madeOn: '2026-11-02', pullsSoFar: 0, expectedLifePulls: 40, notes: '' });
+    const mold = await addMold(owner, { designId: hare, label: 'Hare C', madeOn: '2026-11-02', pullsSoFar: 0, expectedLifePulls: 40, notes: '' });
     expect(mold).toMatchObject({ label: 'Hare C', madeOn: '2026-11-02', pullsSoFar: 0, expectedLifePulls: 40, retiredAt: null });
-    await expect(addMold({ designId: hare, label: 'Hare C', madeOn: '2026-11-02', pullsSoFar: 0, expectedLifePulls: 40, notes: '' })).rejects.toMatchObject({
+    await expect(addMold(owner, { designId: hare, label: 'Hare C', madeOn: '2026-11-02', pullsSoFar: 0, expectedLifePulls: 40, notes: '' })).rejects.toMatchObject({
       code: 'mold_label_taken',
       status: 409,
     });
@@ -50,12 +58,12 @@ describe('adding, counting and retiring molds', () => {
 
   it('refuses a mold made after today, or for a design that does not exist', async () => {
     const { addMold } = await molds();
-    await expect(addMold({ designId: await designId('moth'), label: 'Moth Z', madeOn: '2999-01-01', pullsSoFar: 0, expectedLifePulls: 40, notes: '' })).rejects.toMatchObject({
+    await expect(addMold(owner, { designId: await designId('moth'), label: 'Moth Z', madeOn: '2999-01-01', pullsSoFar: 0, expectedLifePulls: 40, notes: '' })).rejects.toMatchObject({
       code: 'made_on_in_future',
       status: 422,
     });
     await expect(
-      addMold({ designId: '00000000-0000-4000-8000-000000000000', label: 'Nobody', madeOn: '2026-01-01', pullsSoFar: 0, expectedLifePulls: 40, notes: '' }),
+      addMold(owner, { designId: '00000000-0000-4000-8000-000000000000', label: 'Nobody', madeOn: '2026-01-01', pullsSoFar: 0, expectedLifePulls: 40, notes: '' }),
     ).rejects.toMatchObject({ status: 404 });
     const [{ count }] = (await query<{ count: string }>(db.current().url, `SELECT count(*) FROM molds WHERE label IN ('Moth Z', 'Nobody')`)) as [{ count: string }];
     expect(count).toBe('0');
@@ -63,22 +71,22 @@ describe('adding, counting and retiring molds', () => {
 
   it('counts every pull when several are recorded at once', async () => {
     const { addMold, recordPulls } = await molds();
-    const mold = await addMold({ designId: await designId('boar'), label: 'Boar C', madeOn: '2026-10-01', pullsSoFar: 3, expectedLifePulls: 45, notes: '' });
-    await Promise.all(Array.from({ length: 12 }, () => recordPulls({ moldId: mold.id, pulls: 1 })));
+    const mold = await addMold(owner, { designId: await designId('boar'), label: 'Boar C', madeOn: '2026-10-01', pullsSoFar: 3, expectedLifePulls: 45, notes: '' });
+    await Promise.all(Array.from({ length: 12 }, () => recordPulls(owner, { moldId: mold.id, pulls: 1 })));
     const [row] = await query<{ pulls_so_far: number }>(db.current().url, `SELECT pulls_so_far FROM molds WHERE id = $1`, [mold.id]);
     expect(row!.pulls_so_far).toBe(15);
   });
 
   it('retires a mold once; a retired mold takes no more pulls', async () => {
     const { addMold, recordPulls, retireMold } = await molds();
-    const mold = await addMold({ designId: await designId('ibex'), label: 'Ibex Test', madeOn: '2026-09-01', pullsSoFar: 10, expectedLifePulls: 40, notes: '' });
-    const retired = await retireMold({ moldId: mold.id });
+    const mold = await addMold(owner, { designId: await designId('ibex'), label: 'Ibex Test', madeOn: '2026-09-01', pullsSoFar: 10, expectedLifePulls: 40, notes: '' });
+    const retired = await retireMold(owner, { moldId: mold.id });
     expect(retired.retiredAt).not.toBeNull();
-    await expect(retireMold({ moldId: mold.id })).rejects.toMatchObject({ code: 'mold_retired', status: 409 });
-    await expect(recordPulls({ moldId: mold.id, pulls: 2 })).rejects.toMatchObject({ code: 'mold_retired', status: 409 });
+    await expect(retireMold(owner, { moldId: mold.id })).rejects.toMatchObject({ code: 'mold_retired', status: 409 });
+    await expect(recordPulls(owner, { moldId: mold.id, pulls: 2 })).rejects.toMatchObject({ code: 'mold_retired', status: 409 });
     const [row] = await query<{ pulls_so_far: number }>(db.current().url, `SELECT pulls_so_far FROM molds WHERE id = $1`, [mold.id]);
     expect(row!.pulls_so_far).toBe(10);
-    await expect(recordPulls({ moldId: '00000000-0000-4000-8000-000000000000', pulls: 1 })).rejects.toMatchObject({ status: 404 });
+    await expect(recordPulls(owner, { moldId: '00000000-0000-4000-8000-000000000000', pulls: 1 })).rejects.toMatchObject({ status: 404 });
   });
 });
 

@@ -10,8 +10,10 @@ const links = [
   { href: '/workshop/plan', label: 'Plan' },
   { href: '/workshop/batches', label: 'Batches' },
   { href: '/workshop/orders', label: 'Orders' },
+  { href: '/workshop/production', label: 'Production' },
   { href: '/workshop/oversold', label: 'Oversold' },
   { href: '/workshop/people', label: 'People' },
+  { href: '/workshop/audit', label: 'Audit log' },
 ];
 
 export function WorkshopNav() {

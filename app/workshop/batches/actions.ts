@@ -1,6 +1,6 @@
 'use server';
 
-import { revalidatePath, revalidateTag } from 'next/cache';
+import { revalidatePath, updateTag } from 'next/cache';
 import { redirect } from 'next/navigation';
 import { authorizedAction } from '@/lib/auth/action';
 import { catalogueTag } from '@/lib/catalogue/cached';
@@ -9,10 +9,11 @@ import { cancelBatch, saveBatch } from '@/lib/drops/batches';
 import { dropTags } from '@/lib/drops/catalogue';
 
 function refreshShop(batchId: string) {
-  // The home page, the design's page and the drop page read batches from Next's data cache.
-  revalidateTag(dropTags.all, 'max');
-  revalidateTag(dropTags.batch(batchId), 'max');
-  revalidateTag(catalogueTag, 'max');
+  // The home page, the design's page and the drop page read batches from Next's data cache. `updateTag`
+  // expires them outright (not stale-while-revalidate), so the maker's next look at the shop shows the change.
+  updateTag(dropTags.all);
+  updateTag(dropTags.batch(batchId));
+  updateTag(catalogueTag);
   revalidatePath('/workshop/batches');
 }
 

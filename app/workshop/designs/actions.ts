@@ -50,16 +50,16 @@ export const createDesignAction = authorizedAction('owner', designFormSchema, as
   redirect(`/workshop/designs/${change.slug}?done=created`);
 });
 
-export const updateDesignAction = authorizedAction('owner', designUpdateSchema, async (input) => {
-  const change = await updateDesign(input);
+export const updateDesignAction = authorizedAction('owner', designUpdateSchema, async (input, user) => {
+  const change = await updateDesign(user, input);
   catalogueChanged(change);
   // A new slug is a new address: carry on editing there.
   if (change.slug !== change.previousSlug) redirect(`/workshop/designs/${change.slug}?done=moved`);
   return `${change.designName} is saved.`;
 });
 
-export const setDesignStatusAction = authorizedAction('owner', designStatusSchema, async (input) => {
-  const change = await setDesignStatus(input);
+export const setDesignStatusAction = authorizedAction('owner', designStatusSchema, async (input, user) => {
+  const change = await setDesignStatus(user, input);
   catalogueChanged(change);
   if (change.status === 'published') return `${change.designName} is published: buyers can see it in the shop now.`;
   if (change.status === 'retired') return `${change.designName} is retired: the shop no longer shows it.`;
@@ -72,14 +72,14 @@ export const addFinishAction = authorizedAction('owner', finishFormSchema, async
   return `${change.finishName} is added as a draft. Publish it when its photos are in.`;
 });
 
-export const updateFinishAction = authorizedAction('owner', finishUpdateSchema, async (input) => {
-  const change = await updateFinish(input);
+export const updateFinishAction = authorizedAction('owner', finishUpdateSchema, async (input, user) => {
+  const change = await updateFinish(user, input);
   catalogueChanged(change);
   return `${change.finishName} is saved.`;
 });
 
-export const setFinishStatusAction = authorizedAction('owner', finishStatusSchema, async (input) => {
-  const change = await setFinishStatus(input);
+export const setFinishStatusAction = authorizedAction('owner', finishStatusSchema, async (input, user) => {
+  const change = await setFinishStatus(user, input);
   catalogueChanged(change);
   if (change.status === 'published') {
     return change.designStatus === 'published'

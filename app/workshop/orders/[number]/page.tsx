@@ -147,7 +147,7 @@ export default async function WorkshopOrderPage({ params }: Props) {
                         <td className={`${td} text-right`}>
                           <Price value={money(line.unitPriceMinor)} />
                         </td>
-                        <td className={td}>{stageLabels[line.stage] ?? line.stage}</td>
+                        <td className={td}>{(stageLabels as Record<string, string>)[line.stage] ?? line.stage}</td>
                         <td className={td}>
                           <div className="grid justify-items-start gap-1">
                             {line.oversold ? (

@@ -1,5 +1,6 @@
 // Plain words for what an order, its masks and its log record. Safe to import anywhere.
 import { orderStateLabels, orderStates, type OrderState } from '@/lib/orders/states';
+import { lineStages, stageLabels, type LineStage } from '@/lib/production/stages';
 import type { OrderEventView, OrderLineView, RefundView } from '@/lib/orders/queries';
 
 export const oversoldReasonLabels: Record<NonNullable<OrderLineView['oversoldReason']>, string> = {
@@ -12,16 +13,8 @@ export const oversoldResolutionLabels: Record<NonNullable<OrderLineView['oversol
   extra_cast: 'Decided: an extra will be cast',
 };
 
-export const stageLabels: Record<string, string> = {
-  to_cast: 'To cast',
-  cast: 'Cast',
-  trimmed: 'Trimmed',
-  painted: 'Painted',
-  packed: 'Packed',
-  shipped: 'Shipped',
-  failed_casting: 'Casting failed',
-  failed_paint: 'Painting failed',
-};
+// A mask's stage in words: the production rules' own labels.
+export { stageLabels };
 
 export const refundStatusLabels: Record<RefundView['status'], string> = {
   pending: 'Waiting for the payment service',
@@ -51,6 +44,10 @@ const eventLabels: Record<string, string> = {
 /** An event of the order's log in plain words; unknown kinds fall back to their own name, spaced out. */
 export function eventLabel(event: Pick<OrderEventView, 'type' | 'data'>): string {
   if (event.type === 'paid' && event.data.late === true) return 'Paid after the hold had ended';
+  if (event.type === 'line_stage') {
+    const stage = (key: unknown) => (typeof key === 'string' && (lineStages as readonly string[]).includes(key) ? stageLabels[key as LineStage] : 'another stage');
+    return `A mask moved from ${stage(event.data.from)} to ${stage(event.data.to)}`;
+  }
   const known = eventLabels[event.type];
   if (known) return known;
   const spaced = event.type.replaceAll('_', ' ');
