@@ -51,6 +51,9 @@ async function list(query: string) {
 const numbers = async (query: string) => (await list(`perPage=100&${query}`)).rows.map((r) => r.number);
 
 beforeAll(async () => {
+  // The expected lists below are this test's own ledger: the demo's seeded orders are cleared first.
+  await world.rows(`DELETE FROM refunds WHERE order_id IS NOT NULL`);
+  await world.rows(`DELETE FROM orders`);
   const { createHold } = await import('@/lib/drops/holds');
   const { startCheckout } = await import('@/lib/orders/checkout');
   const { refundOrder } = await import('@/lib/orders/refunds');
