@@ -14,7 +14,8 @@ export function BoardStatus({ children }: { children: ReactNode }) {
   const problems = last && !last.ok && (last.error.fieldErrors?.lines?.length ?? 0) > 1 ? last.error.fieldErrors!.lines! : [];
   return (
     <ReportContext value={setLast}>
-      <div className="sticky top-0 z-10 -mx-2 bg-paper-deep/90 px-2 py-1">
+      {/* Always there, so screen readers hear each outcome; it takes room only once it has something to say. */}
+      <div className={last ? 'sticky top-0 z-10 -mx-2 bg-paper-deep/90 px-2 py-1' : ''}>
         <FormStatus state={last} />
         {problems.length > 0 ? (
           <ul className="list-disc pb-1 pl-5 text-sm text-ember-deep">
