@@ -52,4 +52,4 @@ const zones = [
   },
 ];
 
-module.exports = { taxRateBasisPoints, padMm, packingG, zones };
+module.exports = { taxRateBasisPoints, padMm, packingG, zones, eu };
