@@ -101,6 +101,7 @@ module.exports = {
         const state = refund ? 'partly_refunded' : allShipped ? 'shipped' : left ? 'in_production' : 'paid';
         const lastChange = refundAt ?? moves.at(-1)?.at ?? paidAt;
         const tag = `autumn_${String(index + 1).padStart(2, '0')}`;
+        const shipment = demo.shipmentOf(buyer, allShipped ? moves.at(-1).at : null);
 
         const [user] = await q(
           `INSERT INTO users (email, name, role, email_verified, created_at, updated_at)
@@ -123,10 +124,10 @@ module.exports = {
           `INSERT INTO orders (studio_id, batch_id, user_id, hold_id, state, email, buyer_name, currency, lines_minor, shipping_minor, total_minor,
                                tax_label, tax_rate_bp, tax_included_minor, shipping_country, shipping_rate_id, shipping_label, shipping_min_days,
                                shipping_max_days, chargeable_weight_g, ship_to, round_started_at, payment_intent_id, paid_minor, refunded_minor,
-                               paid_at, created_at, updated_at)
+                               paid_at, carrier_name, tracking_number, tracking_url, shipped_at, created_at, updated_at)
            VALUES (:studio, :batch, :user, :hold, :state, :email, :name, :currency, :lines, :shipping, :total, :taxLabel, :taxRate, :tax,
                    :country, :rateId, :rateLabel, :minDays, :maxDays, :weight, :shipTo::jsonb, :startedAt, :intent, :total, :refunded,
-                   :paidAt, :startedAt, :lastChange)
+                   :paidAt, :carrier_name, :tracking_number, :tracking_url, :shipped_at, :startedAt, :lastChange)
            RETURNING id`,
           {
             studio: batch.studio_id, batch: batch.id, user: user.id, hold: hold.id, state, email: buyer.email, name: buyer.name,
@@ -134,7 +135,7 @@ module.exports = {
             taxRate: batch.tax_rate_bp, tax: demo.includedTaxMinor(total, batch.tax_rate_bp), country: buyer.address.country,
             rateId: rate.id, rateLabel: rate.label, minDays: rate.min_days, maxDays: rate.max_days, weight,
             shipTo: JSON.stringify({ name: buyer.name, address: { line2: null, state: null, ...buyer.address } }),
-            intent: `pi_demo_${tag}`, refunded: refund?.amount ?? 0, paidAt, startedAt, lastChange,
+            intent: `pi_demo_${tag}`, refunded: refund?.amount ?? 0, paidAt, startedAt, lastChange, ...shipment,
           },
           transaction,
         );
@@ -160,7 +161,11 @@ module.exports = {
         for (const move of moves) {
           await event(order.id, 'line_stage', { by: move.by, data: { lineId: line.id, from: move.from, to: move.to }, at: move.at });
           if (move.from === 'to_cast') await event(order.id, 'state_changed', { from: 'paid', to: 'in_production', by: move.by, at: move.at });
-          if (move.to === 'shipped') await event(order.id, 'state_changed', { from: 'in_production', to: 'shipped', by: move.by, at: move.at });
+          if (move.to === 'shipped') {
+            // As shipping records it: one event with the state change and the parcel.
+            const parcel = { carrierName: shipment.carrier_name, trackingNumber: shipment.tracking_number, trackingUrl: shipment.tracking_url, lines: 1 };
+            await event(order.id, 'shipped', { from: 'in_production', to: 'shipped', by: move.by, data: parcel, at: move.at });
+          }
         }
         if (refund) {
           const [row] = await q(

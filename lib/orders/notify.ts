@@ -1,17 +1,28 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { OrderConfirmationEmail } from '@/emails/order-confirmation';
+import { OrderInProductionEmail } from '@/emails/order-in-production';
+import { OrderShippedEmail } from '@/emails/order-shipped';
 import { OversoldAlertEmail } from '@/emails/oversold-alert';
 import { OversoldApologyEmail } from '@/emails/oversold-apology';
 import { RefundIssuedEmail } from '@/emails/refund-issued';
 import { sql } from '@/lib/db/sql';
 import { getEnv } from '@/lib/env';
 import { enqueueEmail } from '@/lib/mail/outbox';
+import { loadStudioSettings } from '@/lib/settings/studio';
 import { orderUrl } from './links';
 import type { RefundReason } from './schemas';
 
 // Each message is rendered and put in the outbox inside the transaction that made its cause, with a key
-// that makes it once per cause: one confirmation per order, one refund e-mail per refund.
+// that makes it once per cause: one confirmation per order, one refund e-mail per refund, one "being made"
+// and one "shipped" e-mail per order. A resend from the workshop is a cause of its own, with its own key.
+
+/** The outbox keys of the messages sent once per order; a resend adds `:resend:<event id>`. */
+export const orderMailKeys = {
+  confirmation: (orderId: string) => `order-confirmation:${orderId}`,
+  inProduction: (orderId: string) => `order-in-production:${orderId}`,
+  shipped: (orderId: string) => `order-shipped:${orderId}`,
+};
 
 // Completes "… has refunded €x on order DM-1001 because …".
 const refundReasonClauses: Record<RefundReason, string> = {
@@ -25,7 +36,8 @@ const refundReasonClauses: Record<RefundReason, string> = {
 type OrderForMail = {
   id: string; number: string; email: string; buyer_name: string | null; currency: string; lines_minor: number; shipping_minor: number;
   total_minor: number; paid_minor: number; refunded_minor: number; tax_label: string; tax_rate_bp: number; tax_included_minor: number;
-  shipping_label: string; ship_to: ShipTo | null; studio_name: string; batch_name: string; ship_by: string; time_zone: string;
+  shipping_label: string; shipping_min_days: number; shipping_max_days: number; ship_to: ShipTo | null; studio_name: string; batch_name: string;
+  ship_by: string; time_zone: string; carrier_name: string | null; tracking_number: string | null; tracking_url: string | null;
 };
 type ShipTo = { name?: string | null; address?: Record<string, string | null> | null };
 
@@ -57,7 +69,8 @@ function longDate(isoDate: string): string {
   );
 }
 
-export async function queueOrderConfirmation(orderId: string, transaction: Transaction): Promise<void> {
+/** Queues the order confirmation; `dedupeKey` is given only for a resend. Returns false when it was queued before. */
+export async function queueOrderConfirmation(orderId: string, transaction: Transaction, { dedupeKey }: { dedupeKey?: string } = {}): Promise<boolean> {
   const order = await orderForMail(orderId, transaction);
   const lines = await sql<{ design_name: string; finish_name: string; unit_price_minor: number; oversold: boolean }>(
     `SELECT design_name, finish_name, unit_price_minor, oversold FROM order_lines WHERE order_id = $1 ORDER BY position`,
@@ -65,9 +78,9 @@ export async function queueOrderConfirmation(orderId: string, transaction: Trans
     transaction,
   );
   const oversold = lines.some((line) => line.oversold);
-  await enqueueEmail(
+  return enqueueEmail(
     {
-      dedupeKey: `order-confirmation:${order.id}`,
+      dedupeKey: dedupeKey ?? orderMailKeys.confirmation(order.id),
       to: order.email,
       subject: `Your order ${order.number} from ${order.studio_name}`,
       body: OrderConfirmationEmail({
@@ -156,6 +169,70 @@ export async function queueRefundEmail(refundId: string, transaction: Transactio
             totalRefundedMinor: order.refunded_minor,
             totalPaidMinor: order.paid_minor,
           }),
+    },
+    transaction,
+  );
+}
+
+const lineWords = (lines: { design_name: string; finish_name: string }[]) => lines.map((line) => `${line.design_name} in ${line.finish_name}`);
+
+/** "Your masks are being made": once per order, when its first mask leaves the mold queue. */
+export async function queueInProductionEmail(orderId: string, transaction: Transaction): Promise<boolean> {
+  const order = await orderForMail(orderId, transaction);
+  const lines = await sql<{ design_name: string; finish_name: string }>(
+    `SELECT design_name, finish_name FROM order_lines WHERE order_id = $1 AND NOT refunded ORDER BY position`,
+    [orderId],
+    transaction,
+  );
+  return enqueueEmail(
+    {
+      dedupeKey: orderMailKeys.inProduction(order.id),
+      to: order.email,
+      subject: lines.length > 1 ? `Your masks are being made: order ${order.number}` : `Your mask is being made: order ${order.number}`,
+      body: OrderInProductionEmail({
+        studioName: order.studio_name,
+        buyerName: order.buyer_name,
+        orderNumber: order.number,
+        orderUrl: orderUrl(order),
+        lines: lineWords(lines),
+        shipBy: longDate(order.ship_by),
+      }),
+    },
+    transaction,
+  );
+}
+
+/** The parcel is on its way, with the carrier's tracking link as it was recorded when the order shipped. */
+export async function queueShippedEmail(orderId: string, transaction: Transaction, { dedupeKey }: { dedupeKey?: string } = {}): Promise<boolean> {
+  const order = await orderForMail(orderId, transaction);
+  if (!order.carrier_name || !order.tracking_number || !order.tracking_url) throw new Error(`order ${order.number} has no shipment to tell of`);
+  const [lines, studio] = await Promise.all([
+    sql<{ design_name: string; finish_name: string }>(
+      `SELECT design_name, finish_name FROM order_lines WHERE order_id = $1 AND stage = 'shipped' ORDER BY position`,
+      [orderId],
+      transaction,
+    ),
+    loadStudioSettings(transaction),
+  ]);
+  const days = order.shipping_min_days === order.shipping_max_days ? `${order.shipping_min_days}` : `${order.shipping_min_days}–${order.shipping_max_days}`;
+  return enqueueEmail(
+    {
+      dedupeKey: dedupeKey ?? orderMailKeys.shipped(order.id),
+      to: order.email,
+      subject: `Order ${order.number} from ${order.studio_name} has shipped`,
+      body: OrderShippedEmail({
+        studioName: order.studio_name,
+        buyerName: order.buyer_name,
+        orderNumber: order.number,
+        orderUrl: orderUrl(order),
+        shippedLines: lineWords(lines),
+        carrierName: order.carrier_name,
+        trackingNumber: order.tracking_number,
+        trackingUrl: order.tracking_url,
+        shippingLabel: `${order.shipping_label}, ${days} working days`,
+        shipTo: { name: order.ship_to?.name ?? order.buyer_name ?? '', lines: addressLines(order.ship_to) },
+        contactEmail: studio?.contactEmail ?? null,
+      }),
     },
     transaction,
   );

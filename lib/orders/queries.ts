@@ -19,8 +19,13 @@ export type OrderView = {
   shippingCountry: string; shippingLabel: string; shippingMinDays: number; shippingMaxDays: number; shipTo: ShipTo | null;
   paidMinor: number; refundedMinor: number; paidAt: string | null; cancelledAt: string | null; createdAt: string;
   batchId: string; batchName: string; designName: string; designSlug: string; shipBy: string; studioName: string; timeZone: string;
+  /** The parcel as recorded when the order shipped; all null before. */
+  shipment: ShipmentView | null;
+  /** What the buyer wrote for the studio, if anything. */
+  buyerNote: string | null;
   lines: OrderLineView[]; refunds: RefundView[]; events: OrderEventView[];
 };
+export type ShipmentView = { carrierName: string; trackingNumber: string; trackingUrl: string | null; shippedAt: string };
 
 type OrderRow = {
   id: string; number: string; state: OrderState; user_id: string | null; email: string; buyer_name: string | null; currency: string;
@@ -28,6 +33,7 @@ type OrderRow = {
   shipping_country: string; shipping_label: string; shipping_min_days: number; shipping_max_days: number; ship_to: ShipTo | null;
   paid_minor: number; refunded_minor: number; paid_at: Date | null; cancelled_at: Date | null; created_at: Date;
   batch_id: string; batch_name: string; design_name: string; design_slug: string; ship_by: string; studio_name: string; time_zone: string;
+  carrier_name: string | null; tracking_number: string | null; tracking_url: string | null; shipped_at: Date | null; buyer_note: string | null;
 };
 
 const orderSelect = `
@@ -62,6 +68,11 @@ export async function getOrderByNumber(number: string): Promise<OrderView | null
     cancelledAt: row.cancelled_at?.toISOString() ?? null, createdAt: row.created_at.toISOString(),
     batchId: row.batch_id, batchName: row.batch_name, designName: row.design_name, designSlug: row.design_slug, shipBy: row.ship_by,
     studioName: row.studio_name, timeZone: row.time_zone,
+    shipment:
+      row.shipped_at && row.carrier_name && row.tracking_number
+        ? { carrierName: row.carrier_name, trackingNumber: row.tracking_number, trackingUrl: row.tracking_url, shippedAt: row.shipped_at.toISOString() }
+        : null,
+    buyerNote: row.buyer_note,
     lines: lines.map((l) => ({
       id: l.id, position: l.position, designName: l.design_name, finishName: l.finish_name, unitPriceMinor: l.unit_price_minor,
       oversold: l.oversold, oversoldReason: l.oversold_reason, oversoldResolution: l.oversold_resolution, refunded: l.refunded, restocked: l.restocked, stage: l.stage,
@@ -71,6 +82,18 @@ export async function getOrderByNumber(number: string): Promise<OrderView | null
     })),
     events: events.map((e) => ({ id: e.id, type: e.type, fromState: e.from_state, toState: e.to_state, actorName: e.actor_name, data: e.data, createdAt: e.created_at.toISOString() })),
   };
+}
+
+export type OrderNoteView = { id: string; authorName: string; body: string; createdAt: string };
+
+/** The studio's own notes on an order, oldest first. Workshop only: buyers never see them. */
+export async function listOrderNotes(orderId: string): Promise<OrderNoteView[]> {
+  const rows = await sql<{ id: string; author_name: string; body: string; created_at: Date }>(
+    `SELECT n.id::text, coalesce(u.name, u.email, n.author_label) AS author_name, n.body, n.created_at
+       FROM order_notes n LEFT JOIN users u ON u.id = n.author_user_id WHERE n.order_id = $1 ORDER BY n.id`,
+    [orderId],
+  );
+  return rows.map((r) => ({ id: r.id, authorName: r.author_name, body: r.body, createdAt: r.created_at.toISOString() }));
 }
 
 /** The order if this visitor may see it: its buyer signed in, or anyone holding the signed link. */

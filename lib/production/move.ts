@@ -5,6 +5,7 @@ import { writeAudit } from '@/lib/audit/log';
 import type { CurrentUser } from '@/lib/auth/session';
 import { inTransaction, sql } from '@/lib/db/sql';
 import { recordOrderEvent } from '@/lib/orders/checkout';
+import { queueInProductionEmail } from '@/lib/orders/notify';
 import { nextState, type OrderState } from '@/lib/orders/states';
 import { moveLinesSchema } from './schemas';
 import { checkMove, quoteStage, type LineStage } from './stages';
@@ -49,7 +50,10 @@ async function whereNow(lineId: string, wanted: LineStage, actor: CurrentUser, t
   return `${lineName(line)} ${where}${by}. Reload the board to see it.`;
 }
 
-/** A paid order whose first mask leaves the mold queue is in production; refunded or partly refunded ones keep their state. */
+/**
+ * A paid order whose first mask leaves the mold queue is in production, and its buyer is told; refunded or
+ * partly refunded ones keep their state.
+ */
 async function startProduction(orderId: string, actor: CurrentUser, transaction: Transaction): Promise<string | null> {
   const [order] = await sql<{ number: string; state: OrderState; paid_minor: number; refunded_minor: number }>(
     `SELECT number, state, paid_minor, refunded_minor FROM orders WHERE id = $1 FOR UPDATE`,
@@ -59,6 +63,8 @@ async function startProduction(orderId: string, actor: CurrentUser, transaction:
   if (!order || order.state !== 'paid' || nextState({ ...order, state: 'in_production' }) !== 'in_production') return null;
   await sql(`UPDATE orders SET state = 'in_production', updated_at = now() WHERE id = $1`, [orderId], transaction);
   await recordOrderEvent(orderId, 'state_changed', { from: 'paid', to: 'in_production', actor: actor.id }, transaction);
+  // The buyer hears of it once per order (the outbox key sees to that), and only if this move is committed.
+  await queueInProductionEmail(orderId, transaction);
   return order.number;
 }
 

@@ -103,3 +103,19 @@ export async function loadStudioSettings(transaction?: Transaction): Promise<Stu
     },
   };
 }
+
+/**
+ * Why the studio's currency can no longer change, or null while it still can: batches and orders keep their
+ * prices as minor units of the studio's currency, so a new code would silently re-read every one of them.
+ */
+export async function currencyLockReason(studioId: string, transaction?: Transaction): Promise<string | null> {
+  const [row] = await sql<{ batches: number; orders: number }>(
+    `SELECT (SELECT count(*)::int FROM batches b JOIN designs d ON d.id = b.design_id WHERE d.studio_id = $1) AS batches,
+            (SELECT count(*)::int FROM orders WHERE studio_id = $1) AS orders`,
+    [studioId],
+    transaction,
+  );
+  if (!row || (row.batches === 0 && row.orders === 0)) return null;
+  const what = [row.batches > 0 ? 'batches' : '', row.orders > 0 ? 'orders' : ''].filter(Boolean).join(' and ');
+  return `The currency can no longer change: the studio has ${what}, whose prices are stored as amounts of the current currency’s smallest unit (cents, pence…). A new currency would change what every one of them is worth.`;
+}

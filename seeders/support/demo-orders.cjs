@@ -7,6 +7,8 @@ const MINUTE = 60_000;
 const HOUR = 60 * MINUTE;
 const DAY = 24 * HOUR;
 
+const { carriers } = require('./demo-settings.cjs');
+
 const batchName = 'Autumn batch';
 const makers = { hand: 'kit@marrowgate.example', owner: 'ines@marrowgate.example' };
 
@@ -19,9 +21,9 @@ const failedAfterDays = 1;
  * mask and `paidAfter` how long paying took, both in seconds; `stage` is where the mask is now.
  */
 const orders = [
-  { email: 'orla.venn@example.com', name: 'Orla Venn', finish: 'soot-and-gilt', holdAt: 4, paidAfter: 51, stage: 'shipped', shipping: 'Tracked post',
+  { email: 'orla.venn@example.com', name: 'Orla Venn', finish: 'soot-and-gilt', holdAt: 4, paidAfter: 51, stage: 'shipped', shipping: 'Tracked post', tracking: 'HP 2207 1184 IE',
     address: { line1: '12 Tallow Lane', city: 'Galway', postal_code: 'H91 X0Q1', country: 'IE' } },
-  { email: 'bram.okkel@example.net', name: 'Bram Okkel', finish: 'old-bone', holdAt: 6, paidAfter: 64, stage: 'shipped', shipping: 'Tracked post',
+  { email: 'bram.okkel@example.net', name: 'Bram Okkel', finish: 'old-bone', holdAt: 6, paidAfter: 64, stage: 'shipped', shipping: 'Tracked post', tracking: 'HP 2207 1191 IE',
     address: { line1: 'Lindengracht 300', city: 'Amsterdam', postal_code: '1015 ZZ', country: 'NL' } },
   { email: 'sive.marlow@example.com', name: 'Sive Marlow', finish: 'bog-oak', holdAt: 9, paidAfter: 78, stage: 'packed', shipping: 'Next-day courier',
     address: { line1: '3 Ropewalk Terrace', line2: 'Flat 2', city: 'Cork', postal_code: 'T12 Z9Z9', country: 'IE' } },
@@ -45,6 +47,27 @@ const orders = [
   { email: 'maeve.corrigan@example.com', name: 'Maeve Corrigan', finish: 'old-bone', holdAt: 410, paidAfter: 163, stage: 'to_cast', shipping: 'Tracked post',
     address: { line1: '16 Tanner Row', city: 'Waterford', postal_code: 'X91 T0T0', country: 'IE' } },
 ];
+
+// ---- Shipping: the shipped orders went with the demo's first carrier; the link is kept as it was then ----
+
+const shippingCarrier = carriers.find((carrier) => carrier.name === 'Harbour Post');
+
+/** The same rule as lib/settings/shipping-rules.ts `trackingUrl`: the template with the number, percent-encoded, in place. */
+function trackingUrl(template, trackingNumber) {
+  return template.split('{tracking}').join(encodeURIComponent(trackingNumber));
+}
+
+/** What a shipped demo order records of its parcel: carrier, tracking number and link, and when it left. */
+function shipmentOf(buyer, shippedAt) {
+  if (buyer.stage !== 'shipped') return { carrier_name: null, tracking_number: null, tracking_url: null, shipped_at: null };
+  if (!buyer.tracking) throw new Error(`The shipped demo order of ${buyer.email} needs a tracking number.`);
+  return {
+    carrier_name: shippingCarrier.name,
+    tracking_number: buyer.tracking,
+    tracking_url: trackingUrl(shippingCarrier.tracking_url_template, buyer.tracking),
+    shipped_at: shippedAt,
+  };
+}
 
 // ---- Pricing, the same rules as lib/checkout/pricing.ts (that file is TypeScript; seeders are plain CommonJS) ----
 
@@ -72,4 +95,4 @@ function includedTaxMinor(grossMinor, rateBasisPoints) {
   return Number((2n * BigInt(grossMinor) * bp + d) / (2n * d));
 }
 
-module.exports = { batchName, makers, stageDays, failedAfterDays, orders, chargeableWeightG, shippingRateFor, includedTaxMinor, MINUTE, HOUR, DAY };
+module.exports = { batchName, makers, stageDays, failedAfterDays, orders, shippingCarrier, trackingUrl, shipmentOf, chargeableWeightG, shippingRateFor, includedTaxMinor, MINUTE, HOUR, DAY };

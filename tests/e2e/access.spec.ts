@@ -29,6 +29,7 @@ const routeProbes: Record<string, Record<string, { path: string; expect: number;
   '/api/orders/[number]': { GET: { path: '/api/orders/DM-0000', expect: 404 } },
   '/api/workshop/orders': { GET: { path: '/api/workshop/orders?perPage=10', expect: 200 } },
   '/api/workshop/orders/export': { GET: { path: '/api/workshop/orders/export?state=refunded', expect: 200 } },
+  '/api/workshop/orders/packing-slips': { GET: { path: '/api/workshop/orders/packing-slips?number=DM-0000', expect: 404 } },
   '/api/uploadthing': {
     GET: { path: '/api/uploadthing', expect: 200 },
     POST: { path: '/api/uploadthing', expect: 400 },

@@ -143,6 +143,44 @@ describe('the demo orders of the sold-out Autumn batch', () => {
     expect(view.refundedMinor).toBeLessThan(view.paidMinor);
   });
 
+  it('records each shipped order’s parcel: the demo carrier, a tracking number and the link made from the carrier’s template', async () => {
+    const { carriers } = await import('@/seeders/support/demo-settings.cjs');
+    const batch = await autumnBatch();
+    const orders = await rows<{ id: string; number: string; state: string; carrier_name: string | null; tracking_number: string | null; tracking_url: string | null; shipped_at: Date | null }>(
+      `SELECT id, number, state, carrier_name, tracking_number, tracking_url, shipped_at FROM orders WHERE batch_id = $1 ORDER BY number`,
+      [batch.id],
+    );
+    const shipped = orders.filter((order) => order.state === 'shipped');
+    expect(shipped.length).toBeGreaterThan(0);
+    // The carrier as the settings seed it, read back from the database.
+    const [carrier] = await rows<{ name: string; tracking_url_template: string }>(`SELECT name, tracking_url_template FROM carriers WHERE name = 'Harbour Post'`);
+    expect(carriers.map((c: { name: string }) => c.name)).toContain(carrier!.name);
+    const numbers = new Set<string>();
+    for (const order of shipped) {
+      expect(order.carrier_name, order.number).toBe('Harbour Post');
+      expect(order.tracking_number, order.number).toMatch(/^[A-Z0-9][A-Z0-9 -]{0,39}$/);
+      numbers.add(order.tracking_number!);
+      // Parsed by the WHATWG URL parser: the template's address, with the number as the query value it stands for.
+      const url = new URL(order.tracking_url!);
+      const template = new URL(carrier!.tracking_url_template.replace('{tracking}', 'N'));
+      expect([url.protocol, url.host, url.pathname]).toEqual([template.protocol, template.host, template.pathname]);
+      expect(url.searchParams.get([...template.searchParams.keys()][0]!)).toBe(order.tracking_number);
+      const [event] = await rows<{ created_at: Date; data: Record<string, unknown> }>(
+        `SELECT created_at, data FROM order_events WHERE order_id = $1 AND type = 'shipped'`,
+        [order.id],
+      );
+      expect(event!.created_at.getTime()).toBe(order.shipped_at!.getTime());
+      expect(event!.data).toMatchObject({ carrierName: 'Harbour Post', trackingNumber: order.tracking_number, trackingUrl: order.tracking_url });
+    }
+    expect(numbers.size).toBe(shipped.length);
+    for (const order of orders.filter((o) => o.state !== 'shipped')) {
+      expect([order.carrier_name, order.tracking_number, order.tracking_url, order.shipped_at], order.number).toEqual([null, null, null, null]);
+    }
+    // On a fresh database the rule "shipped has carrier and tracking" is checked for every row.
+    const [rule] = await rows<{ convalidated: boolean }>(`SELECT convalidated FROM pg_constraint WHERE conname = 'orders_shipped_has_tracking'`);
+    expect(rule!.convalidated).toBe(true);
+  });
+
   it('counts every mask as sold in its finish, and keeps quantity = available + held + sold', async () => {
     const batch = await autumnBatch();
     const lines = await linesOf(batch.id);

@@ -2,6 +2,8 @@ import { render } from '@react-email/render';
 import type { ReactElement } from 'react';
 import { describe, expect, it } from 'vitest';
 import OrderConfirmationEmail, { type OrderConfirmationEmailProps } from '@/emails/order-confirmation';
+import OrderInProductionEmail, { type OrderInProductionEmailProps } from '@/emails/order-in-production';
+import OrderShippedEmail, { type OrderShippedEmailProps } from '@/emails/order-shipped';
 import OversoldAlertEmail, { type OversoldAlertEmailProps } from '@/emails/oversold-alert';
 import OversoldApologyEmail, { type OversoldApologyEmailProps } from '@/emails/oversold-apology';
 import RefundIssuedEmail, { type RefundIssuedEmailProps } from '@/emails/refund-issued';
@@ -348,5 +350,79 @@ describe('oversold alert e-mail to the makers', () => {
     expect(out.html).not.toContain('<b>');
     expect(out.html).toContain('&lt;b&gt;x&lt;/b&gt;@example.com');
     expect(out.html).toContain('Soot &amp; Gilt');
+  });
+});
+
+const shipped: OrderShippedEmailProps = {
+  studioName: 'Marrowgate Studio',
+  buyerName: 'Juno Pell',
+  orderNumber: 'DM-2051',
+  orderUrl: 'http://127.0.0.1:3000/orders/DM-2051?token=abc&from=email',
+  shippedLines: ['Boar in Soot & Gilt', 'Hare in Bog Oak'],
+  carrierName: 'Harbour Post',
+  trackingNumber: 'HP 2207 1184 IE',
+  // The space is percent-encoded, as encodeURIComponent does; "&" in the link must survive HTML escaping.
+  trackingUrl: 'https://track.harbourpost.example/parcel?code=HP%202207%201184%20IE&lang=en',
+  shippingLabel: 'Tracked post, 2–4 working days',
+  shipTo: { name: 'Juno Pell', lines: ['2-4 Kawabata', 'Marrow-cho 101-0001', 'Japan'] },
+  contactEmail: 'hello@marrowgate.example',
+};
+
+describe('shipped e-mail', () => {
+  it('gives the carrier, the tracking number and a working tracking link in HTML and plain text', async () => {
+    const out = await renderBoth(<OrderShippedEmail {...shipped} />);
+
+    expectInBoth(out, 'DM-2051', 'Harbour Post', 'HP 2207 1184 IE', 'Tracked post, 2–4 working days');
+    expect(out.text).toContain('your Boar in Soot & Gilt and Hare in Bog Oak');
+    expect(out.html).toContain('your Boar in Soot &amp; Gilt and Hare in Bog Oak');
+    expect(hrefs(out.html)).toEqual(expect.arrayContaining([shipped.trackingUrl, shipped.orderUrl]));
+    expect(out.text).toContain(shipped.trackingUrl);
+    // Read back with the WHATWG URL parser, the link carries the number itself.
+    const link = new URL(hrefs(out.html).find((href) => href.startsWith('https://track.'))!);
+    expect(link.searchParams.get('code')).toBe('HP 2207 1184 IE');
+    expect(link.searchParams.get('lang')).toBe('en');
+  });
+
+  it('says where the parcel goes and how to reach the studio, or leaves the address out when there is none', async () => {
+    const out = await renderBoth(<OrderShippedEmail {...shipped} />);
+    expectInBoth(out, 'Juno Pell', ...shipped.shipTo.lines, 'hello@marrowgate.example');
+    expect(hrefs(out.html)).toContain('mailto:hello@marrowgate.example');
+
+    const without = await renderBoth(<OrderShippedEmail {...shipped} contactEmail={null} />);
+    expectInBoth(without, 'Write to Marrowgate Studio and give your order number, DM-2051.');
+    expectInNeither(without, 'mailto:', 'null', '@marrowgate.example');
+  });
+
+  it('escapes HTML in names and the tracking number', async () => {
+    const out = await renderBoth(<OrderShippedEmail {...shipped} buyerName="<b>Juno</b>" carrierName="<i>Post</i>" />);
+    expect(out.html).not.toContain('<b>');
+    expect(out.html).not.toContain('<i>');
+    expect(out.html).toContain('&lt;b&gt;Juno&lt;/b&gt;');
+    expect(out.html).toContain('Soot &amp; Gilt');
+  });
+});
+
+const making: OrderInProductionEmailProps = {
+  studioName: 'Marrowgate Studio',
+  buyerName: null,
+  orderNumber: 'DM-2051',
+  orderUrl: 'http://127.0.0.1:3000/orders/DM-2051?token=abc',
+  lines: ['Ram in Verdigris'],
+  shipBy: 'Monday 8 February 2027',
+};
+
+describe('masks-being-made e-mail', () => {
+  it('says what is being made, when it should ship, and links the order', async () => {
+    const out = await renderBoth(<OrderInProductionEmail {...making} />);
+    expectInBoth(out, 'has started making your Ram in Verdigris', 'by Monday 8 February 2027', 'DM-2051', 'tracking link');
+    expect(hrefs(out.html)).toContain(making.orderUrl);
+    expect(out.text).toContain(making.orderUrl);
+    expect(out.text).toMatch(/^Hello,$/m);
+    expectInNeither(out, 'null');
+  });
+
+  it('names several masks together', async () => {
+    const out = await renderBoth(<OrderInProductionEmail {...making} lines={['Ram in Verdigris', 'Moth in Old Bone', 'Ibex in Bog Oak']} />);
+    expectInBoth(out, 'your Ram in Verdigris, Moth in Old Bone and Ibex in Bog Oak');
   });
 });

@@ -14,6 +14,7 @@ const links = [
   { href: '/workshop/oversold', label: 'Oversold' },
   { href: '/workshop/people', label: 'People' },
   { href: '/workshop/audit', label: 'Audit log' },
+  { href: '/workshop/settings', label: 'Settings' },
 ];
 
 export function WorkshopNav() {

@@ -4,9 +4,13 @@ import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
 import { AppError } from '@/lib/api/errors';
 import { authorizedAction } from '@/lib/auth/action';
+import { kickMail } from '@/lib/mail/outbox';
 import { formatMoney } from '@/lib/money';
+import { advanceOrders, maxOrdersPerAdvance } from '@/lib/orders/bulk-advance';
 import { getOrderByNumber } from '@/lib/orders/queries';
 import { confirmExtraCast, refundOrder } from '@/lib/orders/refunds';
+import { addOrderNote, resendOrderEmail, shipOrder, updateShipTo } from '@/lib/orders/shipping-actions';
+import { emailKinds, orderNoteSchema, shipOrderSchema, shipToSchema } from '@/lib/orders/shipping-schemas';
 import {
   lineIdSchema,
   orderNumberSchema,
@@ -144,4 +148,69 @@ export const confirmExtraCastAction = authorizedAction('owner', extraCastFormSch
   await confirmExtraCast(user, input.lineId);
   revalidateOrder(input.number);
   return 'An extra will be cast: the batch grows by one and this mask counts as sold.';
+});
+
+// Shipping, the address, notes and e-mails: the studio hands' work as much as the owner's.
+
+export const shipOrderAction = authorizedAction('staff', shipOrderSchema, async (input, user) => {
+  try {
+    const result = await shipOrder(user, input);
+    kickMail();
+    return result.message;
+  } finally {
+    revalidateOrder(input.number);
+  }
+});
+
+const shipToFormSchema = shipToSchema.extend({ number: orderNumberSchema });
+
+export const updateShipToAction = authorizedAction('staff', shipToFormSchema, async ({ number, ...shipTo }, user) => {
+  const message = await updateShipTo(user, { number, shipTo });
+  revalidateOrder(number);
+  return message;
+});
+
+export const addOrderNoteAction = authorizedAction('staff', orderNoteSchema, async (input, user) => {
+  const message = await addOrderNote(user, input);
+  revalidatePath(`/workshop/orders/${input.number}`);
+  return message;
+});
+
+const resendFormSchema = z.object({
+  number: orderNumberSchema,
+  kind: z.enum(emailKinds, { error: 'Choose which e-mail to send again.' }),
+});
+
+export const resendOrderEmailAction = authorizedAction('staff', resendFormSchema, async (input, user) => {
+  const message = await resendOrderEmail(user, input);
+  kickMail();
+  revalidatePath(`/workshop/orders/${input.number}`);
+  return message;
+});
+
+const advanceFormSchema = z.object({
+  orderIds: z
+    .string({ error: 'Choose at least one order.' })
+    .transform((value) =>
+      value
+        .split(',')
+        .map((id) => id.trim())
+        .filter(Boolean),
+    )
+    .pipe(
+      z
+        .array(z.uuid({ error: 'That is not an order of the list.' }))
+        .min(1, 'Choose at least one order.')
+        .max(maxOrdersPerAdvance, `Advance at most ${maxOrdersPerAdvance} orders at a time.`),
+    ),
+});
+
+export const advanceOrdersAction = authorizedAction('staff', advanceFormSchema, async (input, user) => {
+  const summary = await advanceOrders(user, input.orderIds);
+  revalidatePath('/workshop/orders');
+  revalidatePath('/workshop/production');
+  if (summary.moved > 0) kickMail();
+  // Nothing moved is an answer the person must read, not a success.
+  if (summary.moved === 0) throw new AppError('nothing_moved', summary.message, 409, { fields: { orderIds: summary.refused } });
+  return summary.message;
 });

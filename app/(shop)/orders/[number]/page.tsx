@@ -93,10 +93,29 @@ export default async function OrderPage({ params, searchParams }: Props) {
       <div className="mt-8 grid gap-8 sm:grid-cols-2">
         <section aria-labelledby="ship-title">
           <h2 id="ship-title" className="text-xl font-medium">Shipping</h2>
+          {order.shipment ? (
+            <div className="mt-2 rounded-sm border-2 border-moss bg-paper p-4" data-testid="order-shipment">
+              <p className="font-semibold">
+                <span aria-hidden="true">✓ </span>Sent {formatInZone(new Date(order.shipment.shippedAt), order.timeZone)} with {order.shipment.carrierName}
+              </p>
+              <p className="mt-1">
+                Tracking number <span className="figures font-semibold">{order.shipment.trackingNumber}</span>
+              </p>
+              {order.shipment.trackingUrl ? (
+                <p className="mt-2">
+                  <a href={order.shipment.trackingUrl} target="_blank" rel="noopener noreferrer" className="font-semibold underline underline-offset-4">
+                    Track your parcel<span className="sr-only"> on the {order.shipment.carrierName} site (opens in a new tab)</span>
+                  </a>
+                </p>
+              ) : null}
+            </div>
+          ) : null}
           <p className="mt-2">{order.shippingLabel}, {order.shippingMinDays === order.shippingMaxDays ? `${order.shippingMinDays}` : `${order.shippingMinDays}–${order.shippingMaxDays}`} working days after dispatch.</p>
-          <p className="mt-1 text-ink-soft">
-            The studio plans to ship by <time dateTime={order.shipBy}>{new Date(`${order.shipBy}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })}</time>.
-          </p>
+          {order.shipment ? null : (
+            <p className="mt-1 text-ink-soft">
+              The studio plans to ship by <time dateTime={order.shipBy}>{new Date(`${order.shipBy}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })}</time>.
+            </p>
+          )}
           {order.shipTo?.address ? (
             <address className="mt-3 not-italic">
               {[order.shipTo.name, order.shipTo.address.line1, order.shipTo.address.line2, [order.shipTo.address.postal_code, order.shipTo.address.city].filter(Boolean).join(' '), order.shipTo.address.state, order.shipTo.address.country ? countryName(order.shipTo.address.country) : null]
@@ -158,7 +177,7 @@ function LineProgress({ stage, refunded }: { stage: string; refunded: boolean })
   const index = stages.indexOf(stage as (typeof stages)[number]);
   if (index < 0) return <p className="mt-2 text-sm font-semibold">{stageWords[stage] ?? stage}</p>;
   return (
-    <ol className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label="Progress">
+    <ol className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label={`Progress: ${stageWords[stage] ?? stage}`}>
       {stages.map((s, i) => (
         <li key={s} className={i <= index ? 'font-semibold text-ink' : 'text-ink-faint'} aria-current={i === index ? 'step' : undefined}>
           <span aria-hidden="true">{i < index ? '✓ ' : i === index ? '● ' : '○ '}</span>

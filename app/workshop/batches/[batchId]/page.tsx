@@ -31,7 +31,7 @@ export default async function BatchPage({ params, searchParams }: Props) {
   const owner = hasRole(user.role, 'owner');
   return (
     <>
-      <p className="text-sm"><Link href="/workshop/batches" className="text-ink-soft underline underline-offset-4">← All batches</Link></p>
+      <p className="flex flex-wrap gap-x-4 text-sm"><Link href="/workshop/batches" className="text-ink-soft underline underline-offset-4">← All batches</Link><Link href={`/workshop/batches/${batch.id}/report`} className="underline underline-offset-4">Drop report</Link></p>
       <h1 className="mt-2 text-4xl font-medium">{batch.designName}: {batch.name}</h1>
       <p className="mt-2 text-ink-soft">
         {batch.status === 'draft' ? 'Draft: the shop does not show it.' : batch.status === 'cancelled' ? 'Cancelled.' : `Scheduled: opens ${formatInZone(new Date(batch.opensAt), zone)}.`}{' '}

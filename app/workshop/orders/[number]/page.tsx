@@ -4,8 +4,13 @@ import { notFound } from 'next/navigation';
 import { Price } from '@/components/ui/price';
 import { requirePageRole } from '@/lib/auth/authorize';
 import { hasRole } from '@/lib/auth/roles';
-import { getOrderByNumber, type OrderLineView, type OrderView } from '@/lib/orders/queries';
+import { formatInZone } from '@/lib/drops/phase';
+import { getOrderByNumber, listOrderNotes, type OrderLineView, type OrderView } from '@/lib/orders/queries';
 import { orderNumberSchema, refundReasonLabels } from '@/lib/orders/schemas';
+import { addressLockedReason } from '@/lib/orders/shipping-actions';
+import type { EmailKind } from '@/lib/orders/shipping-schemas';
+import { isFailed, quoteStage, type LineStage } from '@/lib/production/stages';
+import { loadStudioSettings } from '@/lib/settings/studio';
 import { Flag, Nothing, OrderStateBadge, OversoldBadge, RefundStatus } from '../_components/badges';
 import { DecisionStatus } from '../_components/decision-status';
 import {
@@ -21,6 +26,10 @@ import {
 import { OversoldDecision } from '../_components/oversold-decision';
 import { RefundForm } from '../_components/refund-form';
 import { StudioTime } from '../_components/studio-time';
+import { AddressPanel } from './_components/address-form';
+import { OrderNotes } from './_components/order-notes';
+import { ResendEmail } from './_components/resend-email';
+import { ShipForm } from './_components/shipping-panel';
 
 type Props = { params: Promise<{ number: string }> };
 
@@ -40,6 +49,19 @@ function leftToRefund(order: OrderView): number {
   return Math.max(0, order.paidMinor - committed);
 }
 
+/** Why the order cannot be marked shipped yet, or null when every mask still to go is packed. */
+function notReadyToShip(order: OrderView): string | null {
+  if (!order.paidAt || order.paidMinor <= 0) return 'Not paid, so nothing ships.';
+  if (order.state === 'refunded' || order.state === 'cancelled') return 'Refunded in full, so nothing ships.';
+  const going = order.lines.filter((line) => !line.refunded && !isFailed(line.stage as LineStage));
+  if (going.length === 0) return 'No mask is left to ship: each is refunded or failed.';
+  if (going.every((line) => line.stage === 'shipped')) return 'Shipped before carriers and tracking numbers were recorded here.';
+  const waiting = going.filter((line) => line.stage !== 'packed');
+  if (waiting.length === 0) return null;
+  const list = waiting.map((line) => `mask ${line.position} at ${quoteStage(line.stage as LineStage)}`).join(', ');
+  return `Ships once every mask is packed: ${going.length - waiting.length} of ${going.length} packed (still to go: ${list}).`;
+}
+
 const sectionTitle = 'mb-2 font-sans text-base font-semibold';
 const box = 'overflow-x-auto rounded-sm border border-paper-edge bg-paper';
 const th = 'px-3 py-2 font-semibold';
@@ -52,6 +74,7 @@ export default async function WorkshopOrderPage({ params }: Props) {
   if (!parsed.success) notFound();
   const order = await getOrderByNumber(parsed.data);
   if (!order) notFound();
+  const [settings, notes] = await Promise.all([loadStudioSettings(), listOrderNotes(order.id)]);
 
   const isOwner = hasRole(user.role, 'owner');
   const zone = order.timeZone;
@@ -65,7 +88,10 @@ export default async function WorkshopOrderPage({ params }: Props) {
   const buyer = order.buyerName ?? order.email;
   const lineLabel = (line: OrderLineView) => `mask ${line.position}, ${line.designName} — ${line.finishName}`;
   const rate = (order.taxRateBasisPoints / 100).toLocaleString('en-GB', { maximumFractionDigits: 2 });
-  const address = order.shipTo?.address;
+  const shipment = order.shipment;
+  const countryName = new Intl.DisplayNames(['en'], { type: 'region' }).of(order.shippingCountry) ?? order.shippingCountry;
+  const noteTimes = Object.fromEntries(notes.map((note) => [note.id, formatInZone(new Date(note.createdAt), zone)]));
+  const emailKinds: EmailKind[] = order.paidAt ? (shipment ? ['confirmation', 'shipped'] : ['confirmation']) : [];
 
   return (
     <>
@@ -371,28 +397,85 @@ export default async function WorkshopOrderPage({ params }: Props) {
         </div>
 
         <div className="grid content-start gap-8">
+          <section aria-labelledby="shipping-title">
+            <h2 id="shipping-title" className={sectionTitle}>
+              Shipping
+            </h2>
+            {shipment ? (
+              <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 rounded-sm border border-moss bg-paper px-4 py-3 text-sm">
+                <dt className="text-ink-soft">State</dt>
+                <dd className="font-semibold">
+                  <span aria-hidden="true">✓ </span>Shipped
+                </dd>
+                <dt className="text-ink-soft">Carrier</dt>
+                <dd>{shipment.carrierName}</dd>
+                <dt className="text-ink-soft">Tracking</dt>
+                <dd className="figures break-all">
+                  {shipment.trackingUrl ? (
+                    <a href={shipment.trackingUrl} target="_blank" rel="noopener noreferrer" className="underline underline-offset-4">
+                      {shipment.trackingNumber}
+                      <span className="sr-only"> (opens the carrier’s tracking page in a new tab)</span>
+                    </a>
+                  ) : (
+                    shipment.trackingNumber
+                  )}
+                </dd>
+                <dt className="text-ink-soft">Sent</dt>
+                <dd>
+                  <StudioTime at={shipment.shippedAt} zone={zone} />
+                </dd>
+              </dl>
+            ) : (
+              <ShipForm
+                orderNumber={order.number}
+                carriers={(settings?.carriers ?? []).map((carrier) => ({ id: carrier.id, name: carrier.name }))}
+                notReady={notReadyToShip(order)}
+                isOwner={isOwner}
+              />
+            )}
+            <p className="mt-3 text-sm">
+              <a
+                href={`/api/workshop/orders/packing-slips?${new URLSearchParams({ number: order.number })}`}
+                target="_blank"
+                rel="noopener"
+                className="underline underline-offset-4"
+              >
+                Packing slip (PDF)<span className="sr-only">, opens in a new tab</span>
+              </a>
+            </p>
+          </section>
+
           <section aria-labelledby="ship-title">
             <h2 id="ship-title" className={sectionTitle}>
               Ship to
             </h2>
-            {order.shipTo ? (
-              <address className="rounded-sm border border-paper-edge bg-paper px-4 py-3 text-sm not-italic">
-                {order.shipTo.name ? <span className="block font-semibold">{order.shipTo.name}</span> : null}
-                {address?.line1 ? <span className="block">{address.line1}</span> : null}
-                {address?.line2 ? <span className="block">{address.line2}</span> : null}
-                {address?.postal_code || address?.city ? (
-                  <span className="block">
-                    {[address.postal_code, address.city].filter(Boolean).join(' ')}
-                  </span>
-                ) : null}
-                {address?.state ? <span className="block">{address.state}</span> : null}
-                {address?.country ? <span className="block">{address.country}</span> : null}
-              </address>
-            ) : (
-              <p className="text-sm text-ink-soft">
-                No address yet: the payment service sends it with the payment.
+            <AddressPanel
+              orderNumber={order.number}
+              shipTo={order.shipTo}
+              country={order.shippingCountry}
+              countryName={countryName}
+              lockedReason={order.paidAt ? addressLockedReason(order.lines, shipment !== null) : 'Not paid: the address comes with the payment.'}
+            />
+            {order.buyerNote ? (
+              <p className="mt-2 rounded-sm border border-paper-edge bg-paper px-4 py-3 text-sm">
+                <span className="block text-ink-soft">The buyer’s note</span>
+                <span className="whitespace-pre-line">{order.buyerNote}</span>
               </p>
-            )}
+            ) : null}
+          </section>
+
+          <section aria-labelledby="notes-title">
+            <h2 id="notes-title" className={sectionTitle}>
+              Studio notes
+            </h2>
+            <OrderNotes orderNumber={order.number} notes={notes} times={noteTimes} />
+          </section>
+
+          <section aria-labelledby="emails-title">
+            <h2 id="emails-title" className={sectionTitle}>
+              E-mails to the buyer
+            </h2>
+            <ResendEmail orderNumber={order.number} kinds={emailKinds} email={order.email} />
           </section>
 
           <section aria-labelledby="refund-title">

@@ -39,11 +39,17 @@ const eventLabels: Record<string, string> = {
   restocked: 'Masks put back on sale',
   extra_cast_confirmed: 'An extra will be cast',
   state_changed: 'State changed',
+  shipped: 'Shipped',
+  address_changed: 'Shipping address changed',
+  email_resent: 'E-mail sent again',
 };
 
 /** An event of the order's log in plain words; unknown kinds fall back to their own name, spaced out. */
 export function eventLabel(event: Pick<OrderEventView, 'type' | 'data'>): string {
   if (event.type === 'paid' && event.data.late === true) return 'Paid after the hold had ended';
+  if (event.type === 'packing_slip_printed') {
+    return event.data.customsDeclaration === true ? 'Packing slip and customs declaration printed' : 'Packing slip printed';
+  }
   if (event.type === 'line_stage') {
     const stage = (key: unknown) => (typeof key === 'string' && (lineStages as readonly string[]).includes(key) ? stageLabels[key as LineStage] : 'another stage');
     return `A mask moved from ${stage(event.data.from)} to ${stage(event.data.to)}`;

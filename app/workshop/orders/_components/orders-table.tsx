@@ -8,7 +8,7 @@ import { Price } from '@/components/ui/price';
 import { ApiError, readApiResponse } from '@/lib/api/client';
 import type { WorkshopOrderRow, WorkshopOrderSort, WorkshopOrdersPage } from '@/lib/orders/workshop-list';
 import { OrderStateBadge, OversoldBadge } from './badges';
-import { OrdersBulkBar, type AdvanceStageAction } from './orders-bulk-bar';
+import { OrdersBulkBar } from './orders-bulk-bar';
 import { OrdersFilters, type FilterOption } from './orders-filters';
 import { StudioTime } from './studio-time';
 import { useOrdersView } from './use-orders-view';
@@ -17,8 +17,6 @@ type Props = {
   zone: string;
   batches: FilterOption[];
   finishes: FilterOption[];
-  /** The hook point for the production stages; see AdvanceStageAction. Leave unset until that exists. */
-  advanceStageAction?: AdvanceStageAction;
 };
 
 // Newest, biggest first; words and codes A to Z.
@@ -32,7 +30,7 @@ async function fetchOrders(query: string): Promise<WorkshopOrdersPage> {
   return readApiResponse<WorkshopOrdersPage>(await fetch(`/api/workshop/orders${query ? `?${query}` : ''}`, { cache: 'no-store' }));
 }
 
-export function OrdersTable({ zone, batches, finishes, advanceStageAction }: Props) {
+export function OrdersTable({ zone, batches, finishes }: Props) {
   const view = useOrdersView();
   const queryClient = useQueryClient();
   const orders = useQuery({ queryKey: ['workshop-orders', view.query], queryFn: () => fetchOrders(view.query), placeholderData: keepPreviousData });
@@ -151,7 +149,9 @@ export function OrdersTable({ zone, batches, finishes, advanceStageAction }: Pro
 
   const error = orders.error instanceof ApiError ? orders.error : null;
   const fieldErrors = (error?.details?.fields ?? {}) as Record<string, string[]>;
-  const selectedIds = Object.keys(rowSelection).filter((id) => rowSelection[id]);
+  const selectedIds = new Set(Object.keys(rowSelection).filter((id) => rowSelection[id]));
+  // A selection lives on one page of one view, so its rows are the ones shown.
+  const selectedOrders = (data?.rows ?? []).filter((row) => selectedIds.has(row.id)).map((row) => ({ id: row.id, number: row.number }));
   const sortable = (id: string): id is WorkshopOrderSort => id in firstDir;
 
   return (
@@ -270,10 +270,9 @@ export function OrdersTable({ zone, batches, finishes, advanceStageAction }: Pro
       ) : null}
 
       <OrdersBulkBar
-        orderIds={selectedIds}
+        orders={selectedOrders}
         onClear={() => setSelection({ view: view.query, rows: {} })}
         onDone={() => queryClient.invalidateQueries({ queryKey: ['workshop-orders'] })}
-        advanceStageAction={advanceStageAction}
       />
 
       {data && data.total > 0 ? (
