@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { formatMoney } from '@/lib/money';
 import type { DropReport } from '@/lib/reports/drop-report';
 
@@ -26,7 +27,12 @@ export function ReportMoneyTable({ report }: { report: DropReport }) {
           </tr>
           <tr className="border-b border-paper-edge/60">
             <th scope="row" className="px-3 py-2 font-semibold">Card fees</th>
-            <td className="px-3 py-2 text-ink-soft">{rate} a payment, at the rate set in the planner</td>
+            <td className="px-3 py-2 text-ink-soft">
+              {rate} a payment, at the rate in{' '}
+              <Link href="/workshop/settings#money" className="underline underline-offset-4">
+                Settings
+              </Link>
+            </td>
             <td className="px-3 py-2 text-right">−{m(money.cardFeesMinor)}</td>
           </tr>
         </tbody>
