@@ -1,12 +1,13 @@
-// The fake mail provider: maildev, an SMTP server with a web inbox and a REST API, on loopback only.
-// The app sends through nodemailer to SMTP_URL exactly as it would to a real provider.
-import path from 'node:path';
-import { isPortOpen, root, startService, waitForHttp } from '../../scripts/lib/run.mjs';
+// Starts the fake mail provider (fake-services/mail/server.ts) as its own process for the demo and the
+// test run, on loopback only, and waits until its API answers. The app sends through nodemailer to
+// SMTP_URL exactly as it would to a real provider.
+import { isPortOpen, startService, waitForHttp } from '../../scripts/lib/run.mjs';
 
+// Keep in step with server.ts.
 export const DEFAULT_SMTP_PORT = 1025;
 export const DEFAULT_WEB_PORT = 1080;
 
-/** Starts maildev and waits until its API answers; returns the service handle and its addresses. */
+/** Starts the fake mail server and waits until its API answers; returns the service handle and its addresses. */
 export async function startFakeMail({ smtpPort = DEFAULT_SMTP_PORT, webPort = DEFAULT_WEB_PORT, quiet = false } = {}) {
   for (const port of [smtpPort, webPort]) {
     if (await isPortOpen(port)) {
@@ -19,14 +20,7 @@ export async function startFakeMail({ smtpPort = DEFAULT_SMTP_PORT, webPort = DE
   const service = startService(
     'mail',
     process.execPath,
-    [
-      path.join(root, 'node_modules/maildev/dist/bin/maildev.js'),
-      '--smtp', String(smtpPort),
-      '--web', String(webPort),
-      '--ip', '127.0.0.1',
-      '--web-ip', '127.0.0.1',
-      '--max-emails', '2000',
-    ],
+    ['--import', 'tsx', 'fake-services/mail/server.ts', '--smtp-port', String(smtpPort), '--web-port', String(webPort), '--host', '127.0.0.1'],
     { quiet },
   );
   const inboxUrl = `http://127.0.0.1:${webPort}`;

@@ -5,6 +5,7 @@ import { writeAudit, type AuditActor } from '@/lib/audit/log';
 import { inTransaction, sql } from '@/lib/db/sql';
 import type { BatchForm } from './batch-schemas';
 import { localTimeToUtc } from './local-time';
+import { announceBatch, nextCorrectionRevision, stopBatchAnnouncements, wasAnnounced } from '@/lib/waitlist/announce';
 
 type Actor = Exclude<AuditActor, 'system'>;
 
@@ -61,6 +62,7 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
     const status = form.intent === 'schedule' ? 'scheduled' : 'draft';
     let batchId = form.batchId;
     let previousStatus: string | null = null;
+    let previousTimes: PreviousTimes | null = null;
     if (!batchId) {
       if (status === 'scheduled' && opensAt <= now) throw fieldError('opensAt', 'A new batch must open in the future.');
       const [created] = await sql<{ id: string }>(
@@ -71,7 +73,8 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
       );
       batchId = created!.id;
     } else {
-      previousStatus = await updateExisting(batchId, design.id, form, { status, opensAt, closesAt, earlyAccessAt, now }, transaction);
+      previousTimes = await updateExisting(batchId, design.id, form, { status, opensAt, closesAt, earlyAccessAt, now }, transaction);
+      previousStatus = previousTimes.status;
     }
     const stock = await saveStock(batchId, form.quantities, transaction);
     const total = Object.values(stock.after).reduce((sum, n) => sum + n, 0);
@@ -90,6 +93,7 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
       },
       transaction,
     );
+    if (status === 'scheduled') await tellWaitlist(batchId, previousTimes, { opensAt, earlyAccessAt }, transaction);
     const warning =
       form.plannedShipBy && form.shipBy < form.plannedShipBy
         ? `The ship-by date ${form.shipBy} is earlier than the plan's ${form.plannedShipBy}: buyers will be promised a date the plan says is not reachable.`
@@ -103,13 +107,32 @@ export async function saveBatch(actor: Actor, form: BatchForm): Promise<SaveBatc
   });
 }
 
+type PreviousTimes = { status: string; opensAt: Date; earlyAccessAt: Date | null };
+
+/**
+ * The waitlist hears of a batch when it becomes scheduled, and again (a correction, with the next revision) when
+ * the times it was told change. Both are queued with the save, so a save that fails tells nobody.
+ */
+async function tellWaitlist(batchId: string, before: PreviousTimes | null, after: { opensAt: Date; earlyAccessAt: Date | null }, transaction: Transaction) {
+  const announced = await wasAnnounced(batchId, transaction);
+  if (!announced) {
+    await announceBatch(batchId, 'announced', { transaction });
+    return;
+  }
+  const moved = !before || before.opensAt.getTime() !== after.opensAt.getTime() || (before.earlyAccessAt?.getTime() ?? null) !== (after.earlyAccessAt?.getTime() ?? null);
+  if (moved) {
+    const revision = await nextCorrectionRevision(batchId, transaction);
+    await announceBatch(batchId, 'correction', { revision, detail: { reason: 'moved', opensAt: after.opensAt.toISOString() }, transaction });
+  }
+}
+
 async function updateExisting(
   batchId: string,
   designId: string,
   form: BatchForm,
   t: { status: string; opensAt: Date; closesAt: Date; earlyAccessAt: Date | null; now: Date },
   transaction: Transaction,
-): Promise<string> {
+): Promise<PreviousTimes> {
   const [current] = await sql<{ id: string; design_id: string; status: string; opens_at: Date; closes_at: Date; early_access_at: Date | null }>(
     `SELECT id, design_id, status, opens_at, closes_at, early_access_at FROM batches WHERE id = $1 FOR UPDATE`,
     [batchId],
@@ -135,7 +158,7 @@ async function updateExisting(
     [batchId, form.name, t.status, form.perBuyerLimit, form.holdMinutes, t.earlyAccessAt, t.opensAt, t.closesAt, form.shipBy, form.plannedShipBy ?? null, form.announcement],
     transaction,
   );
-  return current.status;
+  return { status: current.status, opensAt: current.opens_at, earlyAccessAt: current.early_access_at };
 }
 
 /** Quantities by finish name, before and after the save, for the audit log. */
@@ -199,6 +222,12 @@ export async function cancelBatch(actor: Actor, batchId: string): Promise<{ name
     const holds = await sql<{ id: string; user_id: string }>(`SELECT id, user_id FROM holds WHERE batch_id = $1 AND state = 'active' ORDER BY id`, [batchId], transaction);
     for (const hold of holds) await sql(`SELECT release_hold($1, $2) AS released`, [hold.id, hold.user_id], transaction);
     await sql(`UPDATE batches SET status = 'cancelled', cancelled_at = now(), updated_at = now() WHERE id = $1`, [batchId], transaction);
+    // Whoever was told of the batch is told it is off; unsent invitations to it are not sent.
+    if (await wasAnnounced(batchId, transaction)) {
+      await stopBatchAnnouncements(batchId, transaction);
+      const revision = await nextCorrectionRevision(batchId, transaction);
+      await announceBatch(batchId, 'correction', { revision, detail: { reason: 'cancelled' }, transaction });
+    }
     await writeAudit(
       {
         actor,

@@ -3,6 +3,7 @@ import { requestTime } from '@/lib/clock';
 import { sql } from '@/lib/db/sql';
 import { cardFeeMinor } from '@/lib/planner/materials';
 import { loadStudioSettings } from '@/lib/settings/studio';
+import { getWaitlistConversions, type WaitlistConversion } from '@/lib/waitlist/conversion';
 import {
   buildSeries,
   chartEndMs,
@@ -44,8 +45,8 @@ export type DropReport = {
   money: DropMoney;
   cardFee: { basisPoints: number; fixedMinor: number };
   finishes: FinishSales[];
-  /** Waitlist sign-ups that became orders: null, since the shop has no waitlist yet. */
-  waitlistConversion: null;
+  /** People the batch's announcement reached, and the paid orders that came from the design's waitlist. */
+  waitlistConversion: WaitlistConversion;
 };
 
 type BatchRow = {
@@ -62,7 +63,7 @@ export async function getDropReport({ batchId, now = requestTime() }: { batchId:
   );
   if (!batch) return null;
 
-  const [holdRows, saleRows, finishRows, orderRows, [events], [oversold], [refunds], settings] = await Promise.all([
+  const [holdRows, saleRows, finishRows, orderRows, [events], [oversold], [refunds], settings, conversions] = await Promise.all([
     sql<{ created_at: Date; ended_at: Date | null; quantity: number; state: string }>(
       `SELECT created_at, ended_at, quantity, state FROM holds WHERE batch_id = $1`,
       [batchId],
@@ -107,6 +108,7 @@ export async function getDropReport({ batchId, now = requestTime() }: { batchId:
       [batchId],
     ),
     loadStudioSettings(),
+    getWaitlistConversions([batchId]),
   ]);
 
   const openedMs = (batch.early_access_at ?? batch.opens_at).getTime();
@@ -156,6 +158,6 @@ export async function getDropReport({ batchId, now = requestTime() }: { batchId:
     money,
     cardFee: { basisPoints, fixedMinor },
     finishes: finishRows.map((f) => ({ finishId: f.finish_id, name: f.name, stock: f.quantity, sold: f.sold, heldNow: f.held, refunded: f.refunded })),
-    waitlistConversion: null,
+    waitlistConversion: conversions.get(batchId) ?? { announced: 0, buyers: 0 },
   };
 }

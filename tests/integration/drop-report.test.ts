@@ -140,7 +140,38 @@ describe('the drop report of a batch with known times', () => {
     expect(report.latePayments).toBe(1);
     expect(report.oversold).toEqual({ lines: 1, refunded: 1, extraCast: 0, open: 0 });
     expect(report.refunds).toEqual({ count: 2, amountMinor: total + shipping, pending: 0 });
-    expect(report.waitlistConversion).toBeNull();
+    // Nobody was on the Moth's waitlist for this batch.
+    expect(report.waitlistConversion).toEqual({ announced: 0, buyers: 0 });
+  });
+
+  it('counts the paid orders that came from the waitlist as it stood at the opening', async () => {
+    const [design] = await rows<{ id: string }>(`SELECT design_id AS id FROM batches WHERE id = $1`, [batchId]);
+    const [userD] = await rows<{ id: string }>(`SELECT user_id AS id FROM orders WHERE number = $1`, [numbers.d]);
+    const entry = (email: string, confirmedAt: Date, o: { userId?: string; leftAt?: Date } = {}) =>
+      rows<{ id: string }>(
+        `INSERT INTO waitlist_entries (design_id, email, user_id, state, source, confirmed_at, left_at)
+         VALUES ($1, $2, $3, $4, 'design_page', $5, $6) RETURNING id`,
+        [design!.id, email, o.userId ?? null, o.leftAt ? 'left' : 'confirmed', confirmedAt, o.leftAt ?? null],
+      ).then((r) => r[0]!.id);
+    // A and B by address, D by account under another address: on the list a day before the opening.
+    const onList = [await entry('a@example.com', at(-86_400)), await entry('b@example.com', at(-86_400)), await entry('d-other@example.com', at(-86_400), { userId: userD!.id })];
+    // E joined only after the opening, F had left before it: neither bought as a waitlisted person.
+    await entry('e@example.com', at(60));
+    await entry('f@example.com', at(-86_400), { leftAt: at(-60) });
+    const [announcement] = await rows<{ id: string }>(
+      `INSERT INTO waitlist_announcements (batch_id, kind, state, recipients) VALUES ($1, 'announced', 'queued_all', 4) RETURNING id`,
+      [batchId],
+    );
+    for (const [i, entryId] of [...onList, null].entries()) {
+      await rows(
+        `INSERT INTO mail_outbox (dedupe_key, to_address, subject, html, text, status, sent_at, announcement_id, waitlist_entry_id)
+         VALUES ($1, $2, 'New batch', '', '', $3, $4, $5, $6)`,
+        [`waitlist:${announcement!.id}:${i}`, `person-${i}@example.com`, i < 3 ? 'sent' : 'failed', i < 3 ? at(-3600) : null, announcement!.id, entryId],
+      );
+    }
+    const report = (await (await reports()).getDropReport({ batchId, now }))!;
+    // Three messages went out (the fourth failed); orders A, B and D came from the list.
+    expect(report.waitlistConversion).toEqual({ announced: 3, buyers: 3 });
   });
 
   it('charts held and sold at chosen seconds', async () => {

@@ -8,13 +8,15 @@ import { Price } from '@/components/ui/price';
 import { listMyActiveHolds } from '@/lib/drops/holds';
 import { listBuyerOrders } from '@/lib/orders/queries';
 import { orderStateLabels } from '@/lib/orders/states';
+import { listMyWaitlistEntries } from '@/lib/waitlist/queries';
 import { NameForm } from './_components/name-form';
+import { WaitlistList } from './_components/waitlist-list';
 
 export const metadata: Metadata = { title: 'Your account' };
 
 export default async function AccountPage() {
   const user = await requirePageUser('/account');
-  const [holds, orders] = await Promise.all([listMyActiveHolds(user), listBuyerOrders(user.id)]);
+  const [holds, orders, waitlists] = await Promise.all([listMyActiveHolds(user), listBuyerOrders(user.id), listMyWaitlistEntries({ user })]);
   return (
     <>
       <h1 className="text-4xl font-medium">Your account</h1>
@@ -73,6 +75,12 @@ export default async function AccountPage() {
             ))}
           </ul>
         )}
+      </section>
+      <section className="mt-10" aria-labelledby="waitlists-title">
+        <h2 id="waitlists-title" className="text-2xl font-medium">
+          Waitlists
+        </h2>
+        <WaitlistList entries={waitlists} />
       </section>
       <div className="mt-10 flex flex-wrap items-center gap-4">
         {hasRole(user.role, 'staff') ? (

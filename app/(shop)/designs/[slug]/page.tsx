@@ -9,6 +9,9 @@ import { getPublishedDesignBySlugCached as getPublishedDesignBySlug } from '@/li
 import { requestTime } from '@/lib/clock';
 import { listDrops } from '@/lib/drops/catalogue';
 import { designPageParamsSchema, designPageSearchSchema } from '@/lib/catalogue/schemas';
+import { JoinForm } from '@/components/waitlist/join-form';
+import { getCurrentUser } from '@/lib/auth/session';
+import { listWaitlistDesigns } from '@/lib/waitlist/queries';
 import { BatchList } from './_components/batch-list';
 import { FitTable } from './_components/fit-table';
 
@@ -103,6 +106,8 @@ export default async function DesignPage({ params, searchParams }: Props) {
 
         <BatchList batches={(await listDrops()).filter((d) => d.designSlug === design.slug)} now={requestTime()} />
 
+        <WaitlistBox slug={design.slug} name={design.name} />
+
         <FitTable fit={design.fit} />
 
         <section className="mt-10" aria-labelledby="materials-title">
@@ -115,5 +120,15 @@ export default async function DesignPage({ params, searchParams }: Props) {
 
       </div>
     </article>
+  );
+}
+
+async function WaitlistBox({ slug, name }: { slug: string; name: string }) {
+  const [[entry], user] = await Promise.all([listWaitlistDesigns({ slug }), getCurrentUser()]);
+  if (!entry) return null;
+  return (
+    <div className="mt-10">
+      <JoinForm compact designs={[entry]} fixedEmail={user?.email ?? null} source="design_page" heading={`Hear when the next ${name} batch opens`} />
+    </div>
   );
 }

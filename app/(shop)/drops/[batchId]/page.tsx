@@ -4,6 +4,8 @@ import { notFound } from 'next/navigation';
 import { getCurrentUser } from '@/lib/auth/session';
 import { getDrop } from '@/lib/drops/catalogue';
 import { batchIdSchema } from '@/lib/drops/schemas';
+import { JoinForm } from '@/components/waitlist/join-form';
+import { listWaitlistDesigns } from '@/lib/waitlist/queries';
 import { BatchPhotos } from './_components/batch-photos';
 import { DropLive } from './_components/drop-live';
 
@@ -23,6 +25,7 @@ export default async function DropPage({ params, searchParams }: Props) {
   const drop = await load((await params).batchId);
   if (!drop) notFound();
   const user = await getCurrentUser();
+  const [waitlistDesign] = await listWaitlistDesigns({ slug: drop.design.slug });
   const finishCount = drop.finishes.length;
   return (
     <article className="py-10">
@@ -51,7 +54,21 @@ export default async function DropPage({ params, searchParams }: Props) {
       </ul>
       <BatchPhotos photos={drop.photos} />
       <div className="mt-8">
-        <DropLive drop={drop} signedIn={Boolean(user)} returnedFromCheckout={(await searchParams).checkout === 'cancelled'} />
+        {(await searchParams).early === 'granted' ? (
+          <p role="status" className="mb-4 rounded-sm border border-moss/40 bg-moss-wash p-3">
+            Early access is yours: you may hold a mask from the moment early access starts, before the drop opens to everyone.
+          </p>
+        ) : null}
+        <DropLive
+          drop={drop}
+          signedIn={Boolean(user)}
+          returnedFromCheckout={(await searchParams).checkout === 'cancelled'}
+          waitlistForm={
+            waitlistDesign ? (
+              <JoinForm compact designs={[waitlistDesign]} fixedEmail={user?.email ?? null} source="drop_page" heading={`Missed it? Wait for the next ${drop.design.name} batch`} />
+            ) : null
+          }
+        />
       </div>
     </article>
   );

@@ -3,7 +3,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import Image from 'next/image';
 import Link from 'next/link';
-import { useId, useState } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import { Price } from '@/components/ui/price';
 import { ApiError, readApiResponse } from '@/lib/api/client';
 import type { DropView } from '@/lib/drops/catalogue';
@@ -28,7 +28,7 @@ const phaseWords: Record<DropPhase, string> = {
   cancelled: 'Cancelled',
 };
 
-export function DropLive({ drop, signedIn, returnedFromCheckout = false }: { drop: DropView; signedIn: boolean; returnedFromCheckout?: boolean }) {
+export function DropLive({ drop, signedIn, returnedFromCheckout = false, waitlistForm = null }: { drop: DropView; signedIn: boolean; returnedFromCheckout?: boolean; waitlistForm?: ReactNode }) {
   const queryClient = useQueryClient();
   const availability = useQuery({
     queryKey: ['availability', drop.id],
@@ -86,6 +86,7 @@ export function DropLive({ drop, signedIn, returnedFromCheckout = false }: { dro
           />
         ))}
       </ul>
+      {(phase === 'sold_out' || phase === 'closed') && waitlistForm ? <div className="mt-8 max-w-xl">{waitlistForm}</div> : null}
     </div>
   );
 }
