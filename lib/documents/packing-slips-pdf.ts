@@ -161,6 +161,7 @@ function packingSlip(doc: Doc, order: SlipOrder, settings: StudioSettings) {
   labelled(doc, 'Shipping', order.shippingLabel);
   const masks = order.lines.length;
   labelled(doc, 'In this parcel', `${masks} ${masks === 1 ? 'mask' : 'masks'}`);
+  if (order.buyerNote) labelled(doc, 'Note from the buyer', order.buyerNote);
   doc.moveDown(1);
 
   const columns: Column[] = [

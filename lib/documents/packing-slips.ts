@@ -48,6 +48,8 @@ export type SlipOrder = {
    * none recorded. Customs asks for real weights, so the volumetric figure a courier charges by is never used.
    */
   grossWeightG: number | null;
+  /** What the buyer asked the studio at checkout (a gift, a door code), or null. */
+  buyerNote: string | null;
   /** The lines still to be sent: refunded ones are left out. */
   lines: SlipLine[];
 };
@@ -55,6 +57,7 @@ export type SlipOrder = {
 type OrderRow = {
   id: string; number: string; state: string; created_at: Date; paid_at: Date | null; buyer_name: string | null; email: string;
   currency: string; ship_to: ShipTo | null; shipping_country: string; shipping_label: string; shipping_minor: number; chargeable_weight_g: number;
+  buyer_note: string | null;
 };
 type LineRow = {
   order_id: string; position: number; design_name: string; finish_name: string; unit_price_minor: number;
@@ -70,7 +73,7 @@ export async function loadSlipOrders(numbers: readonly string[]): Promise<SlipOr
   if (wanted.length === 0) return [];
   const orders = await sql<OrderRow>(
     `SELECT id, number, state, created_at, paid_at, buyer_name, email, currency, ship_to, shipping_country, shipping_label,
-            shipping_minor, chargeable_weight_g
+            shipping_minor, chargeable_weight_g, buyer_note
        FROM orders WHERE number = ANY($1::text[])`,
     [wanted],
   );
@@ -107,6 +110,7 @@ export async function loadSlipOrders(numbers: readonly string[]): Promise<SlipOr
       shippingLabel: o.shipping_label,
       shippingMinor: o.shipping_minor,
       chargeableWeightG: o.chargeable_weight_g,
+      buyerNote: o.buyer_note,
       grossWeightG: own.length > 0 ? gross : null,
       lines: own
         .map((l) => ({

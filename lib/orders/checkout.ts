@@ -150,13 +150,13 @@ export async function startCheckout(buyer: Buyer, input: CheckoutInput): Promise
   const order = await inTransaction(async (transaction) => {
     const fields = [
       hold.currency, priced.linesMinor, priced.shippingMinor, priced.totalMinor, hold.tax_label, hold.tax_rate_bp, priced.taxIncludedMinor,
-      input.country, option.rateId, option.label, option.minDays, option.maxDays, weight,
+      input.country, option.rateId, option.label, option.minDays, option.maxDays, weight, input.note ?? null,
     ];
     const [created] = await sql<OrderRow>(
       `INSERT INTO orders (studio_id, batch_id, user_id, hold_id, email, buyer_name, currency, lines_minor, shipping_minor, total_minor,
                            tax_label, tax_rate_bp, tax_included_minor, shipping_country, shipping_rate_id, shipping_label,
-                           shipping_min_days, shipping_max_days, chargeable_weight_g)
-       VALUES ($14, $15, $16, $17, $18, $19, $1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13)
+                           shipping_min_days, shipping_max_days, chargeable_weight_g, buyer_note)
+       VALUES ($15, $16, $17, $18, $19, $20, $1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14)
        ON CONFLICT (hold_id) DO NOTHING RETURNING *`,
       [...fields, hold.studio_id, hold.batch_id, buyer.id, hold.hold_id, buyer.email, buyer.name],
       transaction,
@@ -176,9 +176,9 @@ export async function startCheckout(buyer: Buyer, input: CheckoutInput): Promise
     const [changed] = await sql<OrderRow>(
       `UPDATE orders SET currency = $1, lines_minor = $2, shipping_minor = $3, total_minor = $4, tax_label = $5, tax_rate_bp = $6,
               tax_included_minor = $7, shipping_country = $8, shipping_rate_id = $9, shipping_label = $10, shipping_min_days = $11,
-              shipping_max_days = $12, chargeable_weight_g = $13, checkout_round = checkout_round + 1, round_started_at = now(),
+              shipping_max_days = $12, chargeable_weight_g = $13, buyer_note = $14, checkout_round = checkout_round + 1, round_started_at = now(),
               state = 'awaiting_payment', cancelled_at = NULL, updated_at = now()
-        WHERE hold_id = $14 AND state IN ('awaiting_payment', 'cancelled')
+        WHERE hold_id = $15 AND state IN ('awaiting_payment', 'cancelled')
           AND (shipping_country <> $8 OR shipping_rate_id IS DISTINCT FROM $9 OR total_minor <> $4 OR state = 'cancelled')
         RETURNING *`,
       [...fields, hold.hold_id],
@@ -193,6 +193,8 @@ export async function startCheckout(buyer: Buyer, input: CheckoutInput): Promise
     if (!['awaiting_payment', 'cancelled'].includes(existing.state)) {
       throw new AppError('already_paid', `This hold is already paid: it is order ${existing.number}.`, 409, { orderNumber: existing.number });
     }
+    // Same country, shipping and total: the session stands, but a changed note for the studio is kept.
+    await sql(`UPDATE orders SET buyer_note = $2, updated_at = now() WHERE id = $1 AND buyer_note IS DISTINCT FROM $2`, [existing.id, input.note ?? null], transaction);
     return existing;
   });
 

@@ -9,8 +9,16 @@ export const checkoutSchema = z.object({
   holdId: z.uuid({ error: 'holdId must be the id of one of your holds.' }),
   country,
   shippingRateId: z.uuid({ error: 'Choose one of the shipping options shown.' }),
+  // A line for the studio (a gift, a door code). Line breaks are fine; other control characters are not text.
+  note: z
+    .string({ error: 'The note must be text.' })
+    .trim()
+    .max(500, 'Keep the note for the studio under 500 characters.')
+    .refine((value) => !/[\u0000-\u0009\u000B\u000C\u000E-\u001F\u007F]/.test(value), 'The note has a character that is not text: please type it again.')
+    .optional()
+    .transform((value) => (value ? value : null)),
 });
-export type CheckoutInput = z.infer<typeof checkoutSchema>;
+export type CheckoutInput = Omit<z.infer<typeof checkoutSchema>, 'note'> & { note?: string | null };
 
 export const checkoutOptionsSchema = z.object({
   holdId: z.uuid({ error: 'holdId must be the id of one of your holds.' }),

@@ -56,3 +56,9 @@ export async function redeemEarlyAccess(
   await sql(`INSERT INTO early_access_grants (batch_id, user_id) VALUES ($1, $2) ON CONFLICT DO NOTHING RETURNING batch_id`, [batch.id, user.id]);
   return { outcome: 'granted', ...about, earlyAccessAt: batch.early_access_at.toISOString(), opensAt: batch.opens_at.toISOString() };
 }
+
+/** Whether this person may hold in the batch's early-access window (their grant exists). */
+export async function hasEarlyAccess(batchId: string, userId: string): Promise<boolean> {
+  const rows = await sql<{ one: number }>(`SELECT 1 AS one FROM early_access_grants WHERE batch_id = $1 AND user_id = $2`, [batchId, userId]);
+  return rows.length > 0;
+}

@@ -144,6 +144,14 @@ describe('packing slips and customs summaries as one PDF', () => {
     expect(slip).toContain('Οδός Ερμού 3, кв. Жёлтая');
   });
 
+  it('puts the buyer’s note on the slip for the packer, and nothing when there is none', async () => {
+    const order = picked.eu;
+    expect(slipOf(await printed([order.number]), order.number)[0]).not.toContain('Note from the buyer');
+    await rows(`UPDATE orders SET buyer_note = 'A gift: no price inside, please.' WHERE id = $1`, [order.id]);
+    expect(slipOf(await printed([order.number]), order.number)[0]).toContain(clean('Note from the buyer: A gift: no price inside, please.'));
+    await rows(`UPDATE orders SET buyer_note = NULL WHERE id = $1`, [order.id]);
+  });
+
   it('declares the lines still to be sent, valued in the order’s currency, with the HS code from the settings', async () => {
     const order = picked.us;
     // A second mask, and a third that was refunded: the declaration counts only what is in the parcel.

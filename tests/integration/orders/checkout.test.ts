@@ -17,6 +17,26 @@ async function holdAndCheckout(email: string, quantity = 1, stock?: Awaited<Retu
 }
 
 describe('paying for a hold', () => {
+  it('keeps the buyer’s note for the studio, and a changed note without a new session', async () => {
+    const { createHold } = await import('@/lib/drops/holds');
+    const { startCheckout } = await import('@/lib/orders/checkout');
+    const { checkoutSchema } = await import('@/lib/orders/schemas');
+    const batch = await world.freshBatch(3);
+    const buyer = await world.buyer('note@example.com');
+    const hold = await createHold(buyer, { batchId: batch.batchId, finishId: batch.finishId, quantity: 1 });
+    const shippingRateId = await world.irishRate(buyer, hold.id);
+    const input = checkoutSchema.parse({ holdId: hold.id, country: 'IE', shippingRateId, note: '  A gift for my sister:\nno price inside, please.  ' });
+    const first = await startCheckout(buyer, input);
+    expect((await world.order(hold.id))!.buyer_note).toBe('A gift for my sister:\nno price inside, please.');
+    const again = await startCheckout(buyer, { ...input, note: 'Leave it with the neighbour at 12.' });
+    expect(again.url).toBe(first.url);
+    expect((await world.order(hold.id))!.buyer_note).toBe('Leave it with the neighbour at 12.');
+    // A tab or an escape is not text a person typed into a note; a line break is.
+    expect(checkoutSchema.safeParse({ ...input, note: 'door\tcode' }).success).toBe(false);
+    expect(checkoutSchema.safeParse({ ...input, note: 'x'.repeat(501) }).success).toBe(false);
+    expect(checkoutSchema.parse({ ...input, note: '   ' }).note).toBeNull();
+  });
+
   it('turns a paid hold into an order: held becomes sold, one confirmation, totals priced on the server', async () => {
     const { batch, hold, checkout } = await holdAndCheckout('paid@example.com', 2);
     expect(await world.stock(batch.stockId)).toMatchObject({ quantity: 3, held: 2, sold: 0 });

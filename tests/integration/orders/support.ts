@@ -83,7 +83,7 @@ export function withCheckoutWorld(label: string) {
       return row!;
     },
     async order(orderNumberOrHold: string) {
-      const [row] = await sqlRows<{ id: string; number: string; state: string; paid_minor: number; refunded_minor: number; total_minor: number; payment_intent_id: string | null }>(
+      const [row] = await sqlRows<{ id: string; number: string; state: string; paid_minor: number; refunded_minor: number; total_minor: number; payment_intent_id: string | null; buyer_note: string | null }>(
         `SELECT * FROM orders WHERE number = $1 OR hold_id::text = $1`,
         [orderNumberOrHold],
       );

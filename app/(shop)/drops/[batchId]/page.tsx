@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getCurrentUser } from '@/lib/auth/session';
+import { hasEarlyAccess } from '@/lib/waitlist/early-access';
 import { getDrop } from '@/lib/drops/catalogue';
 import { batchIdSchema } from '@/lib/drops/schemas';
 import { JoinForm } from '@/components/waitlist/join-form';
@@ -26,6 +27,7 @@ export default async function DropPage({ params, searchParams }: Props) {
   if (!drop) notFound();
   const user = await getCurrentUser();
   const [waitlistDesign] = await listWaitlistDesigns({ slug: drop.design.slug });
+  const earlyAccess = Boolean(user && drop.earlyAccessAt && (await hasEarlyAccess(drop.id, user.id)));
   const finishCount = drop.finishes.length;
   return (
     <article className="py-10">
@@ -62,6 +64,7 @@ export default async function DropPage({ params, searchParams }: Props) {
         <DropLive
           drop={drop}
           signedIn={Boolean(user)}
+          earlyAccess={earlyAccess}
           returnedFromCheckout={(await searchParams).checkout === 'cancelled'}
           waitlistForm={
             waitlistDesign ? (

@@ -18,6 +18,8 @@ export function CheckoutForm({ holdId, defaultCountry }: { holdId: string; defau
   const [chosenCountry, setCountry] = useState<string | null>(null);
   const [chosenRate, setRate] = useState<string | null>(null);
   const countryId = useId();
+  const noteId = useId();
+  const [note, setNote] = useState('');
   const base = useQuery({ queryKey: ['checkout', holdId], queryFn: () => fetchOptions(holdId, null), staleTime: 60_000 });
   const countries = base.data?.countries ?? [];
   const country = chosenCountry ?? (countries.some((c) => c.code === defaultCountry) ? defaultCountry : (countries[0]?.code ?? null));
@@ -35,7 +37,7 @@ export function CheckoutForm({ holdId, defaultCountry }: { holdId: string; defau
         await fetch('/api/checkout', {
           method: 'POST',
           headers: { 'Content-Type': 'application/json' },
-          body: JSON.stringify({ holdId, country, shippingRateId: option?.rateId }),
+          body: JSON.stringify({ holdId, country, shippingRateId: option?.rateId, note: note.trim() || undefined }),
         }),
       ),
     onSuccess: ({ url }) => window.location.assign(url),
@@ -98,6 +100,23 @@ export function CheckoutForm({ holdId, defaultCountry }: { holdId: string; defau
           </label>
         ))}
       </fieldset>
+      <div className="grid max-w-md gap-1">
+        <label htmlFor={noteId} className="text-sm font-semibold">
+          Note for the studio <span className="font-normal text-ink-soft">(optional)</span>
+        </label>
+        <textarea
+          id={noteId}
+          value={note}
+          onChange={(event) => setNote(event.target.value)}
+          maxLength={500}
+          rows={2}
+          aria-describedby={`${noteId}-hint`}
+          className="rounded-sm border border-paper-edge bg-white px-3 py-2"
+        />
+        <p id={`${noteId}-hint`} className="text-xs text-ink-soft">
+          A gift, a door code, a name for the packing slip. The studio reads it when it packs your parcel.
+        </p>
+      </div>
       {option && priced.data ? (
         <dl className="grid max-w-sm grid-cols-[1fr_auto] gap-x-6 gap-y-1 text-sm">
           <dt>Mask{priced.data.linesMinor > 0 ? '' : 's'}</dt>

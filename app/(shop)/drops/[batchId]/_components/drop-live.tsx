@@ -28,7 +28,20 @@ const phaseWords: Record<DropPhase, string> = {
   cancelled: 'Cancelled',
 };
 
-export function DropLive({ drop, signedIn, returnedFromCheckout = false, waitlistForm = null }: { drop: DropView; signedIn: boolean; returnedFromCheckout?: boolean; waitlistForm?: ReactNode }) {
+export function DropLive({
+  drop,
+  signedIn,
+  earlyAccess = false,
+  returnedFromCheckout = false,
+  waitlistForm = null,
+}: {
+  drop: DropView;
+  signedIn: boolean;
+  /** Whether this buyer was invited from the waitlist and may hold before the drop opens to everyone. */
+  earlyAccess?: boolean;
+  returnedFromCheckout?: boolean;
+  waitlistForm?: ReactNode;
+}) {
   const queryClient = useQueryClient();
   const availability = useQuery({
     queryKey: ['availability', drop.id],
@@ -59,6 +72,12 @@ export function DropLive({ drop, signedIn, returnedFromCheckout = false, waitlis
   return (
     <div>
       <PhaseBanner phase={phase} drop={drop} times={times} now={now} zone={zone} />
+      {phase === 'early_access' && !earlyAccess ? (
+        <p role="status" className="mt-4 rounded-sm border border-paper-edge bg-paper p-3" data-testid="early-access-only">
+          Right now only people invited from the {drop.design.name} waitlist can hold. The drop opens to everyone on{' '}
+          {formatInZone(new Date(times.opensAt), zone ?? drop.studio.timeZone)}.
+        </p>
+      ) : null}
       {availability.isError ? (
         <p role="alert" className="mt-4 rounded-sm border border-ember/40 bg-ember-wash p-3 text-ember-deep">
           Live stock could not be loaded. We keep trying every few seconds.
@@ -79,14 +98,16 @@ export function DropLive({ drop, signedIn, returnedFromCheckout = false, waitlis
             drop={drop}
             finish={finish}
             stock={live?.stock.find((s) => s.finishId === finish.finishId)}
-            phase={phase}
+            phase={phase === 'early_access' && !earlyAccess ? 'upcoming' : phase}
             signedIn={signedIn}
             alreadyHeld={myHolds.some((h) => h.finishId === finish.finishId)}
             onHeld={refresh}
           />
         ))}
       </ul>
-      {(phase === 'sold_out' || phase === 'closed') && waitlistForm ? <div className="mt-8 max-w-xl">{waitlistForm}</div> : null}
+      {(phase === 'sold_out' || phase === 'closed' || (phase === 'early_access' && !earlyAccess)) && waitlistForm ? (
+        <div className="mt-8 max-w-xl">{waitlistForm}</div>
+      ) : null}
     </div>
   );
 }

@@ -114,7 +114,15 @@ function ReportBody({ report }: { report: DropReport }) {
             value={report.refunds.count}
             note={`${formatMoney({ amountMinor: report.refunds.amountMinor, currency: report.batch.currency })} paid back${report.refunds.pending > 0 ? `; ${report.refunds.pending} pending` : ''}`}
           />
-          <StatCard label="Waitlist to order" value={<span className="text-base">Waitlist not yet built</span>} note="The shop has no waitlist yet, so there is nothing to count" />
+          <StatCard
+            label="Waitlist to order"
+            value={report.waitlistConversion.announced > 0 ? `${Math.round((report.waitlistConversion.buyers / report.waitlistConversion.announced) * 100)}%` : '—'}
+            note={
+              report.waitlistConversion.announced > 0
+                ? `${report.waitlistConversion.buyers} of the ${report.waitlistConversion.announced} people the announcement reached bought`
+                : `No announcement went out for this batch${report.waitlistConversion.buyers > 0 ? `; ${report.waitlistConversion.buyers} waitlisted people bought` : ''}`
+            }
+          />
         </dl>
       </section>
 
