@@ -36,6 +36,7 @@ type Locked = {
   country: string;
   contact_email: string | null;
   postal_address: string;
+  mail_per_minute: number;
   tax_label: string;
   tax_rate_bp: number;
   volumetric_divisor: number;
@@ -51,7 +52,7 @@ type Locked = {
 
 async function lockStudio(transaction: Transaction): Promise<Locked> {
   const [row] = await sql<Locked>(
-    `SELECT id, name, currency, time_zone, country, contact_email, postal_address, tax_label, tax_rate_bp, volumetric_divisor,
+    `SELECT id, name, currency, time_zone, country, contact_email, postal_address, mail_per_minute, tax_label, tax_rate_bp, volumetric_divisor,
             working_days, working_hours_per_day::text AS working_hours_per_day,
             ARRAY(SELECT to_char(h, 'YYYY-MM-DD') FROM unnest(holidays) AS h ORDER BY h) AS holidays, planner_defaults,
             customs_area, customs_hs_code, customs_description, customs_origin_country
@@ -98,6 +99,7 @@ const uniqueViolation = (error: unknown, constraint: string) => {
 const studioLabels: Record<string, string> = {
   name: 'name',
   contactEmail: 'contact e-mail',
+  mailPerMinute: 'e-mails a minute',
   postalAddress: 'postal address',
   country: 'country',
   currency: 'currency',
@@ -110,6 +112,7 @@ export async function updateStudioDetails(actor: Actor, input: StudioDetailsInpu
     const before = {
       name: studio.name,
       contactEmail: studio.contact_email,
+      mailPerMinute: studio.mail_per_minute,
       postalAddress: studio.postal_address,
       country: studio.country,
       currency: studio.currency,
@@ -147,7 +150,8 @@ export async function updateStudioDetails(actor: Actor, input: StudioDetailsInpu
     }
 
     await sql(
-      `UPDATE studios SET name = $2, contact_email = $3, postal_address = $4, country = $5, currency = $6, time_zone = $7, updated_at = now()
+      `UPDATE studios SET name = $2, contact_email = $3, postal_address = $4, country = $5, currency = $6, time_zone = $7, mail_per_minute = $8,
+              updated_at = now()
         WHERE id = $1 RETURNING id`,
       [
         studio.id,
@@ -157,6 +161,7 @@ export async function updateStudioDetails(actor: Actor, input: StudioDetailsInpu
         input.country,
         input.currency,
         input.timeZone,
+        input.mailPerMinute,
       ],
       transaction,
     );

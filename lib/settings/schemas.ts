@@ -270,6 +270,7 @@ const optionalId = (what: string) => z.preprocess(blankToUndefined, id(what).opt
 
 export const studioDetailsSchema = z.object({
   name: plainText('the studio’s name', { min: 1, max: 100 }),
+  mailPerMinute: wholeNumber('the e-mails a minute', { min: 1, max: 100_000 }),
   contactEmail: z.preprocess(
     blankToUndefined,
     z

@@ -20,6 +20,8 @@ export type StudioSettings = {
   contactEmail: string | null;
   /** Multi-line postal address, as printed on slips and at the foot of e-mails. */
   postalAddress: string;
+  /** How many e-mails a minute the outbox sends at most, across every process. */
+  mailPerMinute: number;
   taxLabel: string;
   taxRateBasisPoints: number;
   volumetricDivisor: number;
@@ -44,7 +46,7 @@ export type StudioSettings = {
 
 type StudioRow = {
   id: string; slug: string; name: string; currency: string; time_zone: string; country: string;
-  contact_email: string | null; postal_address: string; tax_label: string; tax_rate_bp: number; volumetric_divisor: number;
+  contact_email: string | null; postal_address: string; mail_per_minute: number; tax_label: string; tax_rate_bp: number; volumetric_divisor: number;
   working_days: number[]; working_hours_per_day: string; holidays: string[]; planner_defaults: unknown;
   customs_area: string[]; customs_hs_code: string | null; customs_description: string; customs_origin_country: string | null;
 };
@@ -52,7 +54,7 @@ type StudioRow = {
 /** The studio's settings (the first studio: one installation serves one studio), or null before any exists. */
 export async function loadStudioSettings(transaction?: Transaction): Promise<StudioSettings | null> {
   const [row] = await sql<StudioRow>(
-    `SELECT id, slug, name, currency, time_zone, country, contact_email, postal_address, tax_label, tax_rate_bp,
+    `SELECT id, slug, name, currency, time_zone, country, contact_email, postal_address, mail_per_minute, tax_label, tax_rate_bp,
             volumetric_divisor, working_days, working_hours_per_day::text AS working_hours_per_day,
             ARRAY(SELECT to_char(h, 'YYYY-MM-DD') FROM unnest(holidays) AS h ORDER BY h) AS holidays, planner_defaults,
             customs_area, customs_hs_code, customs_description, customs_origin_country
@@ -83,6 +85,7 @@ export async function loadStudioSettings(transaction?: Transaction): Promise<Stu
     country: row.country.trim(),
     contactEmail: row.contact_email,
     postalAddress: row.postal_address,
+    mailPerMinute: row.mail_per_minute,
     taxLabel: row.tax_label,
     taxRateBasisPoints: row.tax_rate_bp,
     volumetricDivisor: row.volumetric_divisor,

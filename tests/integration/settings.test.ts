@@ -37,6 +37,7 @@ const lastEntry = async () =>
 type StudioRow = {
   id: string;
   name: string;
+  mail_per_minute: number;
   currency: string;
   time_zone: string;
   country: string;
@@ -57,7 +58,7 @@ type StudioRow = {
 const studioRow = async () =>
   (
     await rows<StudioRow>(
-      `SELECT id, name, currency, time_zone, country, contact_email, postal_address, tax_label, tax_rate_bp, volumetric_divisor, working_days,
+      `SELECT id, name, mail_per_minute, currency, time_zone, country, contact_email, postal_address, tax_label, tax_rate_bp, volumetric_divisor, working_days,
             working_hours_per_day::text AS working_hours_per_day, ARRAY(SELECT to_char(h, 'YYYY-MM-DD') FROM unnest(holidays) h ORDER BY h) AS holidays,
             planner_defaults, customs_area, customs_hs_code, customs_description, customs_origin_country
        FROM studios ORDER BY created_at LIMIT 1`,
@@ -116,6 +117,7 @@ describe('the studio’s details', () => {
     const input = studioDetailsSchema.parse({
       name: 'Marrowgate Mask Studio',
       contactEmail: was.contact_email ?? '',
+      mailPerMinute: String(was.mail_per_minute),
       postalAddress: 'Unit 5, Tannery Yard\nMarrowgate\nIreland',
       country: was.country,
       currency: was.currency,
@@ -135,6 +137,32 @@ describe('the studio’s details', () => {
     });
   });
 
+  it('sets the pace of the outbox, and refuses a pace of nothing', async () => {
+    const { updateStudioDetails } = await save();
+    const { studioDetailsSchema } = await schemas();
+    const was = await studioRow();
+    const form = {
+      name: was.name,
+      contactEmail: was.contact_email ?? '',
+      postalAddress: was.postal_address,
+      country: was.country,
+      currency: was.currency,
+      timeZone: was.time_zone,
+    };
+    expect(studioDetailsSchema.safeParse({ ...form, mailPerMinute: '0' }).success).toBe(false);
+    expect(studioDetailsSchema.safeParse({ ...form, mailPerMinute: '1.5' }).success).toBe(false);
+    const entry = await oneEntry(() =>
+      updateStudioDetails(owner, studioDetailsSchema.parse({ ...form, mailPerMinute: '120' })),
+    );
+    expect((await studioRow()).mail_per_minute).toBe(120);
+    expect(entry.before).toEqual({ mailPerMinute: was.mail_per_minute });
+    expect(entry.after).toEqual({ mailPerMinute: 120 });
+    await updateStudioDetails(
+      owner,
+      studioDetailsSchema.parse({ ...form, mailPerMinute: String(was.mail_per_minute) }),
+    );
+  });
+
   it('writes nothing when nothing changed', async () => {
     const { updateStudioDetails } = await save();
     const was = await studioRow();
@@ -142,6 +170,7 @@ describe('the studio’s details', () => {
     const result = await updateStudioDetails(owner, {
       name: was.name,
       contactEmail: was.contact_email,
+      mailPerMinute: was.mail_per_minute,
       postalAddress: was.postal_address,
       country: was.country,
       currency: was.currency,
@@ -160,6 +189,7 @@ describe('the studio’s details', () => {
         updateStudioDetails(owner, {
           name: 'Renamed',
           contactEmail: was.contact_email,
+          mailPerMinute: was.mail_per_minute,
           postalAddress: was.postal_address,
           country: was.country,
           currency: 'GBP',
@@ -177,6 +207,7 @@ describe('the studio’s details', () => {
       updateStudioDetails(owner, {
         name: 'Half saved',
         contactEmail: 'not an address',
+        mailPerMinute: was.mail_per_minute,
         postalAddress: was.postal_address,
         country: was.country,
         currency: was.currency,
@@ -547,6 +578,7 @@ describe('the currency before the first batch or order', () => {
     const details = {
       name: was.name,
       contactEmail: was.contact_email,
+      mailPerMinute: was.mail_per_minute,
       postalAddress: was.postal_address,
       country: was.country,
       timeZone: was.time_zone,

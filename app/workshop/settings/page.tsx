@@ -99,6 +99,7 @@ export default async function SettingsPage() {
           values={{
             name: studio.name,
             contactEmail: studio.contactEmail ?? '',
+            mailPerMinute: studio.mailPerMinute,
             postalAddress: studio.postalAddress,
             country: studio.country,
             currency: studio.currency,

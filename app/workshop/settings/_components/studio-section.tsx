@@ -8,13 +8,14 @@ import { useSettingsForm } from './use-settings-form';
 export type StudioValues = {
   name: string;
   contactEmail: string;
+  mailPerMinute: number;
   postalAddress: string;
   country: string;
   currency: string;
   timeZone: string;
 };
 
-const shown = ['name', 'contactEmail', 'postalAddress', 'country', 'currency', 'timeZone'];
+const shown = ['name', 'contactEmail', 'mailPerMinute', 'postalAddress', 'country', 'currency', 'timeZone'];
 
 export function StudioSection({
   values,
@@ -54,6 +55,15 @@ export function StudioSection({
           autoComplete="email"
           error={error('contactEmail')}
           hint="Buyers’ replies to the shop’s e-mails go here. Leave empty to send without a reply address."
+        />
+        <TextField
+          label="E-mails a minute, at most"
+          name="mailPerMinute"
+          defaultValue={String(values.mailPerMinute)}
+          inputMode="numeric"
+          autoComplete="off"
+          error={error('mailPerMinute')}
+          hint="The pace of waitlist announcements and every other e-mail. Your mail provider's plan says how many it takes."
         />
         <TextArea
           label="Postal address"
