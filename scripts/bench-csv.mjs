@@ -10,49 +10,19 @@
 // A benchmark, not a test: never part of `npm test`. Progress goes to stderr, one JSON line to stdout.
 //
 //   --orders N (100000)  --heap-mib M (128)  --build (rebuild even when .next/BUILD_ID exists)
-import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { Readable } from 'node:stream';
-import { fileURLToPath } from 'node:url';
 import { ensureDependencies } from './lib/deps.mjs';
-import { stopIfStartedHere } from './lib/postgres.mjs';
-import { stopService, watchLog } from './lib/bench-app.mjs';
+import { watchLog } from './lib/bench-app.mjs';
+import { benchLifecycle, refuseUnknown, rssOfGroup, runAsBenchChild, wholeOption, writeResult } from './lib/bench-common.mjs';
 import { root, run, startService, step, waitForHttp } from './lib/run.mjs';
 import { ensureAuthSecret } from './lib/secrets.mjs';
 
 const argv = process.argv.slice(2);
 const PORT = 3202;
 const baseUrl = `http://127.0.0.1:${PORT}`;
-
-function option(name, fallback) {
-  const i = argv.findIndex((a) => a === `--${name}` || a.startsWith(`--${name}=`));
-  if (i === -1) return fallback;
-  const raw = argv[i].includes('=') ? argv[i].split('=')[1] : argv[i + 1];
-  const value = Number(raw);
-  if (!Number.isInteger(value) || value < 10) throw new Error(`--${name} wants a whole number of at least 10, not "${raw}"`);
-  return value;
-}
-
-/** Resident memory of a process group in MiB, read from /proc (the app and anything it spawned). */
-function rssOfGroup(pgrp) {
-  let kib = 0;
-  for (const entry of fs.readdirSync('/proc')) {
-    if (!/^\d+$/.test(entry)) continue;
-    try {
-      // Field 5 of /proc/<pid>/stat is the process group; the command name (field 2) may hold spaces.
-      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
-      const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-      if (Number(fields[2]) !== pgrp) continue;
-      const match = /VmRSS:\s+(\d+) kB/.exec(fs.readFileSync(`/proc/${entry}/status`, 'utf8'));
-      if (match) kib += Number(match[1]);
-    } catch {
-      // the process ended while we looked
-    }
-  }
-  return Math.round((kib / 1024) * 10) / 10;
-}
 
 /**
  * Adds `count` paid one-mask orders, copies of one of the demo's paid orders with their own numbers and
@@ -145,37 +115,20 @@ async function exportOnce({ token, pgrp, parse }) {
   };
 }
 
-const services = [];
-let postgres;
-let stopping = false;
-
-async function shutdown(code) {
-  if (stopping) return;
-  stopping = true;
-  await Promise.all(services.map(stopService));
-  stopIfStartedHere(postgres);
-  process.exit(code);
-}
-
 async function main() {
-  for (const signal of ['SIGINT', 'SIGTERM']) {
-    process.on(signal, () => {
-      if (!stopping) console.error('\nInterrupted: stopping what the benchmark started…');
-      shutdown(130);
-    });
-  }
+  const bench = benchLifecycle();
   try {
-    const unknown = argv.filter((a) => !/^--(orders|heap-mib)(=.*)?$|^--build$|^\d+$/.test(a));
-    if (unknown.length) throw new Error(`Unknown argument(s): ${unknown.join(' ')} (see the top of scripts/bench-csv.mjs)`);
-    const total = option('orders', 100_000);
+    refuseUnknown(argv, /^--(orders|heap-mib)(=.*)?$|^--build$/, 'bench-csv.mjs');
+    const total = wholeOption(argv, 'orders', 100_000, 10);
     const first = Math.round(total / 10);
-    const heapMib = option('heap-mib', 128);
+    const heapMib = wholeOption(argv, 'heap-mib', 128, 32);
 
     ensureDependencies();
     const { default: pg } = await import('pg');
     const { parse } = await import('csv-parse');
     const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
-    postgres = await ensurePostgres();
+    const postgres = await ensurePostgres();
+    bench.postgres = postgres;
     const url = postgres.urlFor('demold_bench_csv');
     step('A fresh database of its own: demold_bench_csv');
     await ensureDatabase(url, { fresh: true });
@@ -212,7 +165,7 @@ async function main() {
       env: { ...env, NODE_OPTIONS: `${env.NODE_OPTIONS ?? ''} --max-old-space-size=${heapMib}`.trim() },
       quiet: true,
     });
-    services.push(app);
+    bench.services.push(app);
     const log = watchLog(app.child);
     await waitForHttp(`${baseUrl}/api/health`, { timeoutMs: 120_000, process: app.child }).catch((error) => {
       throw new Error(`${error.message}\n${log.tail.join('\n')}`);
@@ -249,28 +202,11 @@ async function main() {
       `Done: ${large.rows} rows, ${large.megabytes} MB in ${large.seconds} s (${large.rowsPerSec} rows/s); ` +
         `memory growth ${small.rssGrowthMiB} MiB for ${small.rows} rows, ${large.rssGrowthMiB} MiB for ${large.rows}`,
     );
-    const line = `${JSON.stringify(result)}\n`;
-    try {
-      fs.writeSync(3, line);
-    } catch {
-      process.stdout.write(line);
-    }
-    await shutdown(0);
+    writeResult(result);
+    await bench.shutdown(0);
   } catch (error) {
-    if (stopping) return;
-    console.error(`\n\x1b[31mThe benchmark could not run:\x1b[0m ${error instanceof Error ? error.message : error}`);
-    await shutdown(1);
+    await bench.fail(error);
   }
 }
 
-// As in bench-holds.mjs: the work runs in a child whose stdout is our stderr, and the JSON comes back on fd 3.
-if (process.env.DEMOLD_BENCH_CHILD !== '1') {
-  const child = spawn(process.execPath, [fileURLToPath(import.meta.url), ...argv], {
-    stdio: ['inherit', 2, 'inherit', 1],
-    env: { ...process.env, DEMOLD_BENCH_CHILD: '1' },
-  });
-  for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
-  child.on('exit', (code, signal) => process.exit(code ?? (signal ? 130 : 1)));
-} else {
-  await main();
-}
+await runAsBenchChild(import.meta.url, argv, main);

@@ -6,13 +6,11 @@
 //
 //   --buyers N (2000)  --units N (40, over three finishes)  --concurrency C (all)  --workers W (2)
 //   --wide-pool P (32, the second raw figure)  --build (rebuild even when .next/BUILD_ID exists)
-import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { ensureDependencies } from './lib/deps.mjs';
-import { stopIfStartedHere } from './lib/postgres.mjs';
 import { startLoad, stopService, watchLog } from './lib/bench-app.mjs';
+import { benchLifecycle, refuseUnknown, runAsBenchChild, wholeOption, writeResult } from './lib/bench-common.mjs';
 import { openRaw } from './lib/bench-raw.mjs';
 import { checkBatch, createBatch, createBuyers } from './lib/bench-seed.mjs';
 import { activitySampler, cpuMeter, summarize } from './lib/bench-stats.mjs';
@@ -22,15 +20,6 @@ import { ensureAuthSecret } from './lib/secrets.mjs';
 const argv = process.argv.slice(2);
 const PORT = 3200;
 const baseUrl = `http://127.0.0.1:${PORT}`;
-
-function option(name, fallback) {
-  const i = argv.findIndex((a) => a === `--${name}` || a.startsWith(`--${name}=`));
-  if (i === -1) return fallback;
-  const raw = argv[i].includes('=') ? argv[i].split('=')[1] : argv[i + 1];
-  const value = Number(raw);
-  if (!Number.isInteger(value) || value < 1) throw new Error(`--${name} wants a whole number of at least 1, not "${raw}"`);
-  return value;
-}
 
 /** The app's own default for a setting, read from lib/env.ts so the comparison follows it if it changes. */
 function appDefault(name) {
@@ -58,7 +47,7 @@ async function benchApp({ pg, db, url, options, env }) {
   }
   step(`Starting the app on ${baseUrl}`);
   const app = startService('app', process.execPath, [next, 'start', '-H', '127.0.0.1', '-p', String(PORT)], { env, quiet: true });
-  services.push(app);
+  bench.services.push(app);
   const log = watchLog(app.child);
   try {
     await waitForHttp(`${baseUrl}/api/health`, { timeoutMs: 120_000, process: app.child });
@@ -138,30 +127,14 @@ function report(name, s, cpu, activity) {
   console.log(`  PostgreSQL sessions on average: ${activity.active} running, ${activity.idleInTx} idle in a transaction, ${activity.idle} idle, ${activity.lockWait} waiting on a lock`);
 }
 
-const services = [];
-let postgres;
-let stopping = false;
-
-async function shutdown(code) {
-  if (stopping) return;
-  stopping = true;
-  await Promise.all(services.map(stopService));
-  stopIfStartedHere(postgres);
-  process.exit(code);
-}
+/** What this run started, stopped on Ctrl-C, on failure and at the end (set as main starts). */
+let bench;
 
 async function main() {
-  for (const signal of ['SIGINT', 'SIGTERM']) {
-    process.on(signal, () => {
-      // The signal comes twice (from the terminal and from the parent): say it once.
-      if (!stopping) console.error('\nInterrupted: stopping what the benchmark started…');
-      shutdown(130);
-    });
-  }
+  bench = benchLifecycle();
   try {
-    const known = /^--(buyers|units|concurrency|workers|wide-pool)(=.*)?$|^--build$|^\d+$/;
-    const unknown = argv.filter((a) => !known.test(a));
-    if (unknown.length) throw new Error(`Unknown argument(s): ${unknown.join(' ')} (see the top of scripts/bench-holds.mjs)`);
+    refuseUnknown(argv, /^--(buyers|units|concurrency|workers|wide-pool)(=.*)?$|^--build$/, 'bench-holds.mjs');
+    const option = (name, fallback) => wholeOption(argv, name, fallback);
     const buyers = option('buyers', 2000);
     const options = {
       buyers,
@@ -177,7 +150,8 @@ async function main() {
     ensureDependencies();
     const { default: pg } = await import('pg');
     const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
-    postgres = await ensurePostgres();
+    const postgres = await ensurePostgres();
+    bench.postgres = postgres;
     const url = postgres.urlFor('demold_bench');
     step('A fresh database of its own: demold_bench');
     await ensureDatabase(url, { fresh: true });
@@ -222,31 +196,11 @@ async function main() {
       },
     };
     step(`Done: app ${app.throughputPerSec}/s, raw ${raw.throughputPerSec}/s (pool ${poolMax}), ${rawWide.throughputPerSec}/s (pool ${options.widePool}); ratio ${ratio}`);
-    // fd 3 is the parent's stdout (see the top); run on its own, this process writes to its stdout.
-    const line = `${JSON.stringify(result)}\n`;
-    try {
-      fs.writeSync(3, line);
-    } catch {
-      process.stdout.write(line);
-    }
-    await shutdown(0);
+    writeResult(result);
+    await bench.shutdown(0);
   } catch (error) {
-    if (stopping) return; // interrupted: the load processes died with the signal, nothing to report
-    console.error(`\n\x1b[31mThe benchmark could not run:\x1b[0m ${error instanceof Error ? error.message : error}`);
-    await shutdown(1);
+    await bench.fail(error);
   }
 }
 
-// Everything this reuses prints to stdout (step(), pg_ctl, sequelize-cli, next build), yet stdout must
-// carry the JSON line alone. So the work runs in a child whose stdout is our stderr, and the child hands
-// the JSON back on its fd 3, which is our stdout. Ctrl-C reaches both; the child cleans up, we wait.
-if (process.env.DEMOLD_BENCH_CHILD !== '1') {
-  const child = spawn(process.execPath, [fileURLToPath(import.meta.url), ...argv], {
-    stdio: ['inherit', 2, 'inherit', 1],
-    env: { ...process.env, DEMOLD_BENCH_CHILD: '1' },
-  });
-  for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
-  child.on('exit', (code, signal) => process.exit(code ?? (signal ? 130 : 1)));
-} else {
-  await main();
-}
+await runAsBenchChild(import.meta.url, argv, main);

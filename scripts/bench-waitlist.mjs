@@ -7,45 +7,16 @@
 // A benchmark, not a test: never part of `npm test`. Progress goes to stderr, one JSON line to stdout.
 //
 //   --n N (10000)  --concurrency C (16: messages in flight and SMTP connections, both paths)
-import { spawn } from 'node:child_process';
-import fs from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { startFakeMail } from '../fake-services/mail/index.mjs';
 import { ensureDependencies } from './lib/deps.mjs';
-import { stopIfStartedHere } from './lib/postgres.mjs';
 import { stopService } from './lib/bench-app.mjs';
+import { benchLifecycle, refuseUnknown, rssOfGroup, runAsBenchChild, wholeOption, writeResult } from './lib/bench-common.mjs';
 import { root, startService, step } from './lib/run.mjs';
 import { ensureAuthSecret } from './lib/secrets.mjs';
 
 const argv = process.argv.slice(2);
 const SMTP_PORT = 1825;
 const WEB_PORT = 1880;
-
-function option(name, fallback) {
-  const i = argv.findIndex((a) => a === `--${name}` || a.startsWith(`--${name}=`));
-  if (i === -1) return fallback;
-  const raw = argv[i].includes('=') ? argv[i].split('=')[1] : argv[i + 1];
-  const value = Number(raw);
-  if (!Number.isInteger(value) || value < 1) throw new Error(`--${name} wants a whole number of at least 1, not "${raw}"`);
-  return value;
-}
-
-/** Resident memory of a process group in MiB, from /proc. */
-function rssOfGroup(pgrp) {
-  let kib = 0;
-  for (const entry of fs.readdirSync('/proc')) {
-    if (!/^\d+$/.test(entry)) continue;
-    try {
-      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
-      if (Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[2]) !== pgrp) continue;
-      const match = /VmRSS:\s+(\d+) kB/.exec(fs.readFileSync(`/proc/${entry}/status`, 'utf8'));
-      if (match) kib += Number(match[1]);
-    } catch {
-      // gone while we looked
-    }
-  }
-  return Math.round((kib / 1024) * 10) / 10;
-}
 
 const rate = (count, ms) => (ms > 0 ? Math.round((count / ms) * 1000) : null);
 
@@ -78,36 +49,19 @@ async function seedAnnouncement(db, n) {
   return announcement.id;
 }
 
-const services = [];
-let postgres;
-let stopping = false;
-
-async function shutdown(code) {
-  if (stopping) return;
-  stopping = true;
-  await Promise.all(services.map(stopService));
-  stopIfStartedHere(postgres);
-  process.exit(code);
-}
-
 async function main() {
-  for (const signal of ['SIGINT', 'SIGTERM']) {
-    process.on(signal, () => {
-      if (!stopping) console.error('\nInterrupted: stopping what the benchmark started…');
-      shutdown(130);
-    });
-  }
+  const run = benchLifecycle();
   try {
-    const unknown = argv.filter((a) => !/^--(n|concurrency)(=.*)?$|^\d+$/.test(a));
-    if (unknown.length) throw new Error(`Unknown argument(s): ${unknown.join(' ')} (see the top of scripts/bench-waitlist.mjs)`);
-    const n = option('n', 10_000);
-    const concurrency = option('concurrency', 16);
+    refuseUnknown(argv, /^--(n|concurrency)(=.*)?$/, 'bench-waitlist.mjs');
+    const n = wholeOption(argv, 'n', 10_000);
+    const concurrency = wholeOption(argv, 'concurrency', 16);
 
     ensureDependencies();
     const { default: pg } = await import('pg');
     const { default: nodemailer } = await import('nodemailer');
     const { ensureDatabase, ensurePostgres, sequelizeCli } = await import('./lib/postgres.mjs');
-    postgres = await ensurePostgres();
+    const postgres = await ensurePostgres();
+    run.postgres = postgres;
     const url = postgres.urlFor('demold_bench_waitlist');
     step('A fresh database of its own: demold_bench_waitlist');
     await ensureDatabase(url, { fresh: true });
@@ -118,7 +72,7 @@ async function main() {
 
     step(`Starting the fake mail server on ${SMTP_PORT}/${WEB_PORT}`);
     const mail = await startFakeMail({ smtpPort: SMTP_PORT, webPort: WEB_PORT, quiet: true });
-    services.push(mail.service);
+    run.services.push(mail.service);
 
     step(`Seeding ${n} confirmed waitlist entries and a queued announcement`);
     const announcementId = await seedAnnouncement(db, n);
@@ -146,7 +100,7 @@ async function main() {
       },
       quiet: true,
     });
-    services.push(worker);
+    run.services.push(worker);
 
     let firstAt = null;
     let queuedAt = null;
@@ -210,28 +164,11 @@ async function main() {
       ratioAppToRaw: raw.deliveredPerSec ? Math.round((app.deliveredPerSec / raw.deliveredPerSec) * 100) / 100 : null,
       exactlyOnce: stats.distinctMessageIds === n && stats.duplicates === 0,
     };
-    const line = `${JSON.stringify(result)}\n`;
-    try {
-      fs.writeSync(3, line);
-    } catch {
-      process.stdout.write(line);
-    }
-    await shutdown(0);
+    writeResult(result);
+    await run.shutdown(0);
   } catch (error) {
-    if (stopping) return;
-    console.error(`\n\x1b[31mThe benchmark could not run:\x1b[0m ${error instanceof Error ? error.message : error}`);
-    await shutdown(1);
+    await run.fail(error);
   }
 }
 
-// As in bench-holds.mjs: the work runs in a child whose stdout is our stderr, and the JSON comes back on fd 3.
-if (process.env.DEMOLD_BENCH_CHILD !== '1') {
-  const child = spawn(process.execPath, [fileURLToPath(import.meta.url), ...argv], {
-    stdio: ['inherit', 2, 'inherit', 1],
-    env: { ...process.env, DEMOLD_BENCH_CHILD: '1' },
-  });
-  for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
-  child.on('exit', (code, signal) => process.exit(code ?? (signal ? 130 : 1)));
-} else {
-  await main();
-}
+await runAsBenchChild(import.meta.url, argv, main);
