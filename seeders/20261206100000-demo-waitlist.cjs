@@ -34,7 +34,7 @@ module.exports = {
             `INSERT INTO waitlist_entries (design_id, email, user_id, state, source, time_zone, confirmed_at, left_at, created_at, updated_at)
              VALUES (:design, :email, :user, :state, 'design_page', 'Europe/Dublin',
                      CASE WHEN :state IN ('confirmed', 'left') THEN now() - make_interval(days => :days) + interval '10 minutes' END,
-                     CASE WHEN :state = 'left' THEN now() - make_interval(days => :days) + interval '3 days' END,
+                     CASE WHEN :state = 'left' THEN least(now() - interval '1 hour', now() - make_interval(days => :days) + interval '3 days') END,
                      now() - make_interval(days => :days), now())
              RETURNING id`,
             { design: design.id, email: person.email, user: person.userId ?? null, state: person.state, days: person.daysAgo },

@@ -55,6 +55,8 @@ const maxAttempts = 8;
 
 type Claimed = {
   id: string; to_address: string; subject: string; html: string; text: string; headers: Record<string, string>; attempts: number; suppressed: string | null;
+  /** A waitlist message whose person is no longer on the list (left, or back to pending for an announcement). */
+  off_list: boolean | null;
 };
 
 // The throttle: one token bucket for the studio's sending, kept as a row of rate_limits (key, points, expire) so
@@ -93,7 +95,9 @@ async function claimWithinRate(limit: number, leaseSeconds: number): Promise<{ c
               WHERE id IN (SELECT id FROM mail_outbox WHERE status = 'pending' AND next_attempt_at <= now()
                             ORDER BY next_attempt_at LIMIT $1 FOR UPDATE SKIP LOCKED)
               RETURNING id, to_address, subject, html, text, headers, attempts,
-                        (SELECT reason FROM mail_suppressions s WHERE s.email = lower(btrim(m.to_address))) AS suppressed`,
+                        (SELECT reason FROM mail_suppressions s WHERE s.email = lower(btrim(m.to_address))) AS suppressed,
+                        (SELECT CASE WHEN m.announcement_id IS NOT NULL THEN w.state <> 'confirmed' ELSE w.state = 'left' END
+                           FROM waitlist_entries w WHERE w.id = m.waitlist_entry_id) AS off_list`,
             [allowed, leaseSeconds],
             transaction,
           )
@@ -132,6 +136,15 @@ export async function deliverOutbox({ limit = 50 }: { limit?: number } = {}): Pr
   const domain = new URL(getEnv().APP_URL).hostname || 'demold.local';
 
   const sendOne = async (message: Claimed) => {
+    // Leaving a waitlist takes effect at once: what was queued for that person before they left is not sent.
+    if (message.off_list) {
+      await sql(`UPDATE mail_outbox SET status = 'failed', last_error = $2, updated_at = now() WHERE id = $1 AND status = 'pending'`, [
+        message.id,
+        'Not sent: the person left the waitlist after this was queued.',
+      ]);
+      round.failed += 1;
+      return;
+    }
     if (message.suppressed) {
       await sql(`UPDATE mail_outbox SET status = 'failed', last_error = $2, updated_at = now() WHERE id = $1 AND status = 'pending'`, [
         message.id,

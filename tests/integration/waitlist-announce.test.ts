@@ -227,6 +227,37 @@ describe('sending', () => {
     expect(await inbox('gone@example.com')).toEqual([]);
   });
 
+  it('does not send what was queued for someone who left the list before it went out', async () => {
+    const { drainOutbox } = await import('@/lib/mail/outbox');
+    await until(async () => (await rows(`SELECT 1 FROM mail_outbox WHERE status = 'pending'`)).length === 0, 'earlier mail to go');
+    const stays = await entry('stays@example.com');
+    const goes = await entry('goes@example.com');
+    const [batch] = await rows<{ id: string }>(`SELECT id FROM batches ORDER BY created_at LIMIT 1`);
+    const [a] = await rows<{ id: string }>(
+      `INSERT INTO waitlist_announcements (batch_id, kind, revision) VALUES ($1, 'announced', 99) RETURNING id`,
+      [batch!.id],
+    );
+    for (const [to, id] of [['stays@example.com', stays], ['goes@example.com', goes]] as const) {
+      await rows(
+        `INSERT INTO mail_outbox (dedupe_key, to_address, subject, html, text, announcement_id, waitlist_entry_id)
+         VALUES ($1, $2, 'Announced', '<p>a</p>', 'a', $3, $4)`,
+        [`test:left:${to}`, to, a!.id, id],
+      );
+    }
+    // Leaving happens between the fan-out and the send.
+    await rows(`UPDATE waitlist_entries SET state = 'left', left_at = now() WHERE id = $1`, [goes]);
+    await drainOutbox({ maxMs: 10_000 });
+    const sent = await rows<{ to_address: string; status: string; last_error: string | null }>(
+      `SELECT to_address, status, last_error FROM mail_outbox WHERE announcement_id = $1 ORDER BY to_address`,
+      [a!.id],
+    );
+    expect(sent).toEqual([
+      { to_address: 'goes@example.com', status: 'failed', last_error: expect.stringMatching(/left the waitlist/) },
+      { to_address: 'stays@example.com', status: 'sent', last_error: null },
+    ]);
+    expect(await inbox('goes@example.com')).toEqual([]);
+  });
+
   it('keeps to the studio’s rate across senders', async () => {
     const { drainOutbox } = await import('@/lib/mail/outbox');
     const perMinute = 120;
