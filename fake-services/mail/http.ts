@@ -15,10 +15,11 @@ export type MailContext = { inbox: Inbox; faults: FaultState };
 /** The newest this many are drawn on the inbox page; the API returns all. */
 const PAGE_LIMIT = 500;
 
-// Pages never run scripts; the sandboxed iframe keeps a message's own HTML from doing so either.
+// Pages never run scripts; the sandboxed iframe keeps a message's own HTML from doing so either. The srcdoc
+// frame inherits this policy, so frame-ancestors must let the page frame it (with 'none' it stays blank).
 const PAGE_HEADERS = {
   'Content-Type': 'text/html; charset=utf-8',
-  'Content-Security-Policy': "script-src 'none'; object-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'",
+  'Content-Security-Policy': "script-src 'none'; object-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'self'",
   'X-Content-Type-Options': 'nosniff',
 };
 
