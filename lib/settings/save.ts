@@ -72,6 +72,22 @@ async function lockStudio(transaction: Transaction): Promise<Locked> {
 
 const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
 
+/** One audit entry about the studio's settings, in the save's own transaction: `settings.<what>`. */
+function auditSettings(
+  transaction: Transaction,
+  actor: Actor,
+  studio: Locked,
+  what: string,
+  summary: string,
+  before: unknown,
+  after: unknown,
+): Promise<void> {
+  return writeAudit(
+    { actor, action: `settings.${what}`, subject: studioSubject(studio), summary, before, after },
+    transaction,
+  );
+}
+
 /** Only the keys whose value differs, on both sides. */
 function changes<T extends Record<string, unknown>>(before: T, after: T) {
   const keys = Object.keys(after).filter((key) => !same(before[key], after[key]));
@@ -165,16 +181,14 @@ export async function updateStudioDetails(actor: Actor, input: StudioDetailsInpu
       ],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.studio_changed',
-        subject: studioSubject(studio),
-        summary: `Changed the studio’s ${diff.keys.map((key) => studioLabels[key] ?? key).join(', ')}`,
-        before: diff.before,
-        after: diff.after,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'studio_changed',
+      `Changed the studio’s ${diff.keys.map((key) => studioLabels[key] ?? key).join(', ')}`,
+      diff.before,
+      diff.after,
     );
     return { changed: diff.keys, message: 'The studio’s details are saved.' };
   });
@@ -198,16 +212,14 @@ export async function updateCalendar(actor: Actor, input: CalendarInput): Promis
       [studio.id, input.workingDays, input.hoursPerDay, input.holidays],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.calendar_changed',
-        subject: studioSubject(studio),
-        summary: 'Changed the working calendar',
-        before: diff.before,
-        after: diff.after,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'calendar_changed',
+      'Changed the working calendar',
+      diff.before,
+      diff.after,
     );
     return {
       changed: diff.keys,
@@ -261,16 +273,14 @@ export async function updateMoney(actor: Actor, input: MoneyInput): Promise<Sett
       ],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.money_changed',
-        subject: studioSubject(studio),
-        summary: 'Changed the tax, card fee or volumetric divisor',
-        before: { ...diff.before, currency: studio.currency },
-        after: { ...diff.after, currency: studio.currency },
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'money_changed',
+      'Changed the tax, card fee or volumetric divisor',
+      { ...diff.before, currency: studio.currency },
+      { ...diff.after, currency: studio.currency },
     );
     return {
       changed: diff.keys,
@@ -332,16 +342,14 @@ export async function saveZone(actor: Actor, input: ZoneInput): Promise<Settings
         [studio.id, input.name, input.countries],
         transaction,
       );
-      await writeAudit(
-        {
-          actor,
-          action: 'settings.zone_added',
-          subject: studioSubject(studio),
-          summary: `Added the shipping zone ${input.name} (${input.countries.join(', ')})`,
-          before: null,
-          after: { zoneId: row!.id, name: input.name, countries: input.countries },
-        },
+      await auditSettings(
         transaction,
+        actor,
+        studio,
+        'zone_added',
+        `Added the shipping zone ${input.name} (${input.countries.join(', ')})`,
+        null,
+        { zoneId: row!.id, name: input.name, countries: input.countries },
       );
       return {
         changed: ['zone'],
@@ -359,16 +367,14 @@ export async function saveZone(actor: Actor, input: ZoneInput): Promise<Settings
       [current.id, input.name, input.countries],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.zone_changed',
-        subject: studioSubject(studio),
-        summary: `Changed the shipping zone ${current.name}`,
-        before: { zoneId: current.id, ...diff.before },
-        after: { zoneId: current.id, ...diff.after },
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'zone_changed',
+      `Changed the shipping zone ${current.name}`,
+      { zoneId: current.id, ...diff.before },
+      { zoneId: current.id, ...diff.after },
     );
     return { changed: ['zone'], message: `The zone ${input.name} is saved.` };
   });
@@ -385,16 +391,14 @@ export async function deleteZone(actor: Actor, input: { zoneId: string }): Promi
     );
     if (!zone) throw zoneNotFound();
     const countries = zone.countries.map((c) => c.trim());
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.zone_deleted',
-        subject: studioSubject(studio),
-        summary: `Deleted the shipping zone ${zone.name} with its ${zone.rates === 1 ? 'rate' : `${zone.rates} rates`}`,
-        before: { zoneId: zone.id, name: zone.name, countries, rates: zone.rates },
-        after: null,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'zone_deleted',
+      `Deleted the shipping zone ${zone.name} with its ${zone.rates === 1 ? 'rate' : `${zone.rates} rates`}`,
+      { zoneId: zone.id, name: zone.name, countries, rates: zone.rates },
+      null,
     );
     return {
       changed: ['zone'],
@@ -448,16 +452,14 @@ export async function saveRate(actor: Actor, input: RateInput): Promise<Settings
         [zone.id, input.label, input.upToGrams, input.amountMinor, input.minDays, input.maxDays],
         transaction,
       );
-      await writeAudit(
-        {
-          actor,
-          action: 'settings.rate_added',
-          subject: studioSubject(studio),
-          summary: `Added the rate ${input.label} up to ${input.upToGrams} g to ${zone.name}`,
-          before: null,
-          after: { rateId: row!.id, zone: zone.name, ...after, currency: studio.currency },
-        },
+      await auditSettings(
         transaction,
+        actor,
+        studio,
+        'rate_added',
+        `Added the rate ${input.label} up to ${input.upToGrams} g to ${zone.name}`,
+        null,
+        { rateId: row!.id, zone: zone.name, ...after, currency: studio.currency },
       );
       return { changed: ['rate'], message: `The rate ${input.label} is added to ${zone.name}.` };
     }
@@ -476,16 +478,14 @@ export async function saveRate(actor: Actor, input: RateInput): Promise<Settings
       [current.id, input.label, input.upToGrams, input.amountMinor, input.minDays, input.maxDays],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.rate_changed',
-        subject: studioSubject(studio),
-        summary: `Changed the rate ${current.label} up to ${current.up_to_grams} g of ${zone.name}`,
-        before: { rateId: current.id, ...diff.before, currency: studio.currency },
-        after: { rateId: current.id, ...diff.after, currency: studio.currency },
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'rate_changed',
+      `Changed the rate ${current.label} up to ${current.up_to_grams} g of ${zone.name}`,
+      { rateId: current.id, ...diff.before, currency: studio.currency },
+      { rateId: current.id, ...diff.after, currency: studio.currency },
     );
     return { changed: ['rate'], message: `The rate ${input.label} of ${zone.name} is saved.` };
   });
@@ -502,16 +502,14 @@ export async function deleteRate(actor: Actor, input: { rateId: string }): Promi
       transaction,
     );
     if (!rate) throw new AppError('rate_not_found', 'That rate no longer exists. Reload the page.', 404);
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.rate_deleted',
-        subject: studioSubject(studio),
-        summary: `Deleted the rate ${rate.label} up to ${rate.up_to_grams} g of ${rate.zone_name}`,
-        before: { rateId: rate.id, zone: rate.zone_name, ...rateView(rate), currency: studio.currency },
-        after: null,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'rate_deleted',
+      `Deleted the rate ${rate.label} up to ${rate.up_to_grams} g of ${rate.zone_name}`,
+      { rateId: rate.id, zone: rate.zone_name, ...rateView(rate), currency: studio.currency },
+      null,
     );
     return { changed: ['rate'], message: `The rate ${rate.label} of ${rate.zone_name} is deleted.` };
   });
@@ -555,16 +553,14 @@ export async function saveParcelSize(actor: Actor, input: ParcelSizeInput): Prom
           [studio.id, input.name, input.lengthMm, input.widthMm, input.heightMm, input.emptyWeightG],
           transaction,
         );
-        await writeAudit(
-          {
-            actor,
-            action: 'settings.parcel_size_added',
-            subject: studioSubject(studio),
-            summary: `Added the box ${input.name} (${input.lengthMm} × ${input.widthMm} × ${input.heightMm} mm)`,
-            before: null,
-            after: { parcelSizeId: row!.id, ...after },
-          },
+        await auditSettings(
           transaction,
+          actor,
+          studio,
+          'parcel_size_added',
+          `Added the box ${input.name} (${input.lengthMm} × ${input.widthMm} × ${input.heightMm} mm)`,
+          null,
+          { parcelSizeId: row!.id, ...after },
         );
         return { changed: ['parcelSize'], message: `The box ${input.name} is added.` };
       }
@@ -581,16 +577,14 @@ export async function saveParcelSize(actor: Actor, input: ParcelSizeInput): Prom
         [current.id, input.name, input.lengthMm, input.widthMm, input.heightMm, input.emptyWeightG],
         transaction,
       );
-      await writeAudit(
-        {
-          actor,
-          action: 'settings.parcel_size_changed',
-          subject: studioSubject(studio),
-          summary: `Changed the box ${current.name}`,
-          before: { parcelSizeId: current.id, ...diff.before },
-          after: { parcelSizeId: current.id, ...diff.after },
-        },
+      await auditSettings(
         transaction,
+        actor,
+        studio,
+        'parcel_size_changed',
+        `Changed the box ${current.name}`,
+        { parcelSizeId: current.id, ...diff.before },
+        { parcelSizeId: current.id, ...diff.after },
       );
       return { changed: ['parcelSize'], message: `The box ${input.name} is saved.` };
     });
@@ -618,16 +612,14 @@ export async function deleteParcelSize(
       transaction,
     );
     if (!box) throw boxNotFound();
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.parcel_size_deleted',
-        subject: studioSubject(studio),
-        summary: `Deleted the box ${box.name}`,
-        before: { parcelSizeId: box.id, ...boxView(box) },
-        after: null,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'parcel_size_deleted',
+      `Deleted the box ${box.name}`,
+      { parcelSizeId: box.id, ...boxView(box) },
+      null,
     );
     return { changed: ['parcelSize'], message: `The box ${box.name} is deleted.` };
   });
@@ -651,16 +643,14 @@ export async function saveCarrier(actor: Actor, input: CarrierInput): Promise<Se
           [studio.id, input.name, input.trackingUrlTemplate],
           transaction,
         );
-        await writeAudit(
-          {
-            actor,
-            action: 'settings.carrier_added',
-            subject: studioSubject(studio),
-            summary: `Added the carrier ${input.name}`,
-            before: null,
-            after: { carrierId: row!.id, ...after },
-          },
+        await auditSettings(
           transaction,
+          actor,
+          studio,
+          'carrier_added',
+          `Added the carrier ${input.name}`,
+          null,
+          { carrierId: row!.id, ...after },
         );
         return { changed: ['carrier'], message: `${input.name} is added.` };
       }
@@ -677,16 +667,14 @@ export async function saveCarrier(actor: Actor, input: CarrierInput): Promise<Se
         [current.id, input.name, input.trackingUrlTemplate],
         transaction,
       );
-      await writeAudit(
-        {
-          actor,
-          action: 'settings.carrier_changed',
-          subject: studioSubject(studio),
-          summary: `Changed the carrier ${current.name}`,
-          before: { carrierId: current.id, ...diff.before },
-          after: { carrierId: current.id, ...diff.after },
-        },
+      await auditSettings(
         transaction,
+        actor,
+        studio,
+        'carrier_changed',
+        `Changed the carrier ${current.name}`,
+        { carrierId: current.id, ...diff.before },
+        { carrierId: current.id, ...diff.after },
       );
       return { changed: ['carrier'], message: `${input.name} is saved.` };
     });
@@ -711,20 +699,18 @@ export async function deleteCarrier(actor: Actor, input: { carrierId: string }):
       transaction,
     );
     if (!carrier) throw carrierNotFound();
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.carrier_deleted',
-        subject: studioSubject(studio),
-        summary: `Deleted the carrier ${carrier.name}`,
-        before: {
-          carrierId: carrier.id,
-          name: carrier.name,
-          trackingUrlTemplate: carrier.tracking_url_template,
-        },
-        after: null,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'carrier_deleted',
+      `Deleted the carrier ${carrier.name}`,
+      {
+        carrierId: carrier.id,
+        name: carrier.name,
+        trackingUrlTemplate: carrier.tracking_url_template,
+      },
+      null,
     );
     return { changed: ['carrier'], message: `${carrier.name} is deleted.` };
   });
@@ -749,16 +735,14 @@ export async function updateCustoms(actor: Actor, input: CustomsInput): Promise<
       [studio.id, input.area, input.hsCode, input.description, input.originCountry],
       transaction,
     );
-    await writeAudit(
-      {
-        actor,
-        action: 'settings.customs_changed',
-        subject: studioSubject(studio),
-        summary: 'Changed the customs details',
-        before: diff.before,
-        after: diff.after,
-      },
+    await auditSettings(
       transaction,
+      actor,
+      studio,
+      'customs_changed',
+      'Changed the customs details',
+      diff.before,
+      diff.after,
     );
     return { changed: diff.keys, message: 'The customs details are saved.' };
   });
