@@ -164,6 +164,8 @@ try {
   console.log('\n\x1b[1mSummary\x1b[0m');
   for (const r of results) console.log(`  ${r.ok ? '✔' : '✘'} ${r.name}${r.extra ? ` (${r.extra})` : ''}`);
   if (!browserOnly && !vitestOk && !vitest) console.log('  vitest wrote no report: see its output above');
+  // The failures again, at the end, where a log cut to its last lines still shows them.
+  for (const line of failedTests(vitest, playwright)) console.log(`  \x1b[31m✘\x1b[0m ${line}`);
   console.log(`  took ${Math.round((Date.now() - started) / 1000)} s`);
   console.log(`\ntests: ${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
   exitCode = results.every((r) => r.ok) && failed === 0 && passed > 0 ? 0 : 1;
@@ -177,3 +179,31 @@ try {
   stopIfStartedHere(postgres);
 }
 process.exit(exitCode);
+
+/** One line per failed test from the two JSON reports: file, name and the first line of the message. */
+function failedTests(vitest, playwright) {
+  const lines = [];
+  const firstLine = (text) => String(text ?? '').replace(/\x1b\[[0-9;]*m/g, '').split('\n').find((l) => l.trim()) ?? '';
+  for (const file of vitest?.testResults ?? []) {
+    const where = path.relative(root, file.name ?? '');
+    for (const test of file.assertionResults ?? []) {
+      if (test.status === 'failed') lines.push(`${where} › ${test.fullName}: ${firstLine(test.failureMessages?.[0])}`);
+    }
+    if (file.status === 'failed' && !(file.assertionResults ?? []).some((t) => t.status === 'failed')) {
+      lines.push(`${where}: ${firstLine(file.message)}`);
+    }
+  }
+  const walk = (suite, trail) => {
+    for (const spec of suite.specs ?? []) {
+      for (const test of spec.tests ?? []) {
+        if (test.status === 'unexpected' || test.status === 'flaky') {
+          const error = test.results?.find((r) => r.error)?.error?.message;
+          lines.push(`${spec.file} › [${test.projectName}] ${[...trail, spec.title].join(' › ')}: ${firstLine(error)}`);
+        }
+      }
+    }
+    for (const child of suite.suites ?? []) walk(child, [...trail, child.title]);
+  };
+  for (const suite of playwright?.suites ?? []) walk(suite, []);
+  return lines;
+}

@@ -78,4 +78,24 @@ test.describe('the shop’s home page', () => {
     const body = await response.json();
     expect(body).toMatchObject({ status: 'ok', checks: { database: { status: 'up' } } });
   });
+  test('serves robots.txt keeping crawlers out of the workshop, and a sitemap of the published designs', async ({ request }) => {
+    const robots = await request.get('/robots.txt');
+    expect(robots.status()).toBe(200);
+    const robotsText = await robots.text();
+    // RFC 9309: a group starts with User-agent; Disallow lines name path prefixes.
+    expect(robotsText).toMatch(/^User-Agent: \*$/im);
+    expect(robotsText).toMatch(/^Disallow: \/workshop$/m);
+    expect(robotsText).toMatch(/^Disallow: \/account$/m);
+    expect(robotsText).toMatch(/^Sitemap: http:\/\/127\.0\.0\.1:3100\/sitemap\.xml$/m);
+
+    const sitemap = await request.get('/sitemap.xml');
+    expect(sitemap.status()).toBe(200);
+    const xml = await sitemap.text();
+    // The sitemaps.org 0.9 protocol's namespace, one <loc> per page.
+    expect(xml).toContain('xmlns="http://www.sitemaps.org/schemas/sitemap/0.9"');
+    const locs = [...xml.matchAll(/<loc>([^<]+)<\/loc>/g)].map((m) => m[1] ?? '');
+    expect(locs).toContain('http://127.0.0.1:3100/');
+    expect(locs.some((loc) => /\/designs\/hare/.test(loc))).toBe(true);
+    expect(locs.some((loc) => loc.includes('/workshop') || loc.includes('/account'))).toBe(false);
+  });
 });

@@ -253,14 +253,16 @@ describe('faults', () => {
   });
 
   it('waits latencyMs before answering DATA', async () => {
-    await setFaults({ latencyMs: 1_200 });
+    await setFaults({ latencyMs: 2_000 });
     const started = performance.now();
     await transport.sendMail(studioMail());
-    expect(performance.now() - started).toBeGreaterThanOrEqual(1_150);
+    const slow = performance.now() - started;
+    expect(slow).toBeGreaterThanOrEqual(1_950);
     await setFaults({});
     const quick = performance.now();
     await transport.sendMail(studioMail());
-    expect(performance.now() - quick).toBeLessThan(1_000);
+    // A wide margin: on a busy two-core machine an ordinary send can take a few hundred milliseconds.
+    expect(performance.now() - quick).toBeLessThan(slow - 1_000);
     expect(await inbox()).toHaveLength(2);
   });
 

@@ -203,7 +203,6 @@ describe('announcing a batch to ten thousand people', () => {
       expect(message.text, address).toContain(earlyAccessUrl(batchId, address));
     }
     for (let g = people + 1; g <= people + suppressedPeople; g += 1) expect(byAddress.has(`fan-${g}@example.com`)).toBe(false);
-    // About 60 messages a second reach the fake server from the worker on a two-core machine: some three minutes.
-    expect(seconds).toBeLessThan(280);
+    // The speed itself (about 60 messages a second here) is measured by `npm run bench:waitlist`, not asserted.
   }, 330_000);
 });
