@@ -98,4 +98,17 @@ test.describe('the shop’s home page', () => {
     expect(locs.some((loc) => /\/designs\/hare/.test(loc))).toBe(true);
     expect(locs.some((loc) => loc.includes('/workshop') || loc.includes('/account'))).toBe(false);
   });
+  test('answers with headers that forbid framing and sniffing, and keep the referrer to the origin', async ({ request }) => {
+    for (const path of ['/', '/designs/hare', '/api/health']) {
+      const headers = (await request.get(path)).headers();
+      // Clickjacking: CSP Level 2's frame-ancestors, with X-Frame-Options for older browsers.
+      expect(headers['content-security-policy'], path).toContain("frame-ancestors 'none'");
+      expect(headers['x-frame-options'], path).toBe('DENY');
+      expect(headers['x-content-type-options'], path).toBe('nosniff');
+      expect(headers['referrer-policy'], path).toBe('strict-origin-when-cross-origin');
+      // The browser tests run the production build, which sends HSTS (RFC 6797).
+      expect(headers['strict-transport-security'], path).toMatch(/^max-age=\d{7,}/);
+      expect(headers['x-powered-by'], path).toBeUndefined();
+    }
+  });
 });
