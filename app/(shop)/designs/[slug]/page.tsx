@@ -43,15 +43,24 @@ export default async function DesignPage({ params, searchParams }: Props) {
 
   return (
     <article className="grid gap-10 py-10 lg:grid-cols-[3fr_2fr] lg:gap-16">
-      <div className="grid gap-4 self-start sm:grid-cols-2 lg:sticky lg:top-6 lg:grid-cols-1 xl:grid-cols-2">
+      {/* On a phone the photos are a strip to swipe, so the name and price are on the first screen. */}
+      <div
+        role="region"
+        aria-label={`Photos of ${design.name} in ${selected.name}`}
+        tabIndex={0}
+        className="-mx-5 flex snap-x snap-mandatory scroll-px-5 gap-3 self-start overflow-x-auto px-5 focus-visible:outline focus-visible:outline-2 sm:mx-0 sm:grid sm:grid-cols-2 sm:gap-4 sm:overflow-visible sm:px-0 sm:scroll-px-0 lg:sticky lg:top-6 lg:grid-cols-1 xl:grid-cols-2"
+      >
         {selected.photos.map((photo, index) => (
-          <div key={photo.src} className="relative aspect-[4/5] overflow-hidden rounded-sm bg-paper-deep">
+          <div
+            key={photo.src}
+            className="relative aspect-[4/5] w-[72%] shrink-0 snap-start overflow-hidden rounded-sm bg-paper-deep sm:w-auto"
+          >
             <Image
               src={photo.src}
               alt={photo.alt}
               fill
               priority={index === 0}
-              sizes="(min-width: 1280px) 22rem, (min-width: 1024px) 36rem, (min-width: 640px) 45vw, 92vw"
+              sizes="(min-width: 1280px) 22rem, (min-width: 1024px) 36rem, (min-width: 640px) 45vw, 72vw"
               className="object-cover"
             />
           </div>
