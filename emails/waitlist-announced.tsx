@@ -1,23 +1,7 @@
-import { Button, Link, Text } from '@react-email/components';
-import { EmailLayout, button, paragraph } from './components/email-layout';
+import { Text } from '@react-email/components';
+import { EmailLayout, paragraph } from './components/email-layout';
 import { joinWithAnd } from './components/order-summary';
-
-const small = { color: '#6b635a', fontFamily: 'Helvetica, Arial, sans-serif', fontSize: '12px', lineHeight: '18px', margin: '0 0 8px' };
-
-/** The foot every waitlist message carries: why it came, a visible way out, and the studio's postal address. */
-export function WaitlistFooter({ studioName, designName, postalAddress, unsubscribeUrl }: { studioName: string; designName: string; postalAddress: string; unsubscribeUrl: string }) {
-  return (
-    <>
-      <Text style={small}>{`You get this e-mail because you joined the waitlist for ${designName} at ${studioName} and confirmed your address.`}</Text>
-      <Text style={small}>
-        <Link href={unsubscribeUrl} style={{ color: '#1f1c1a', textDecoration: 'underline' }}>
-          Leave the {designName} waitlist
-        </Link>
-      </Text>
-      <Text style={{ ...small, whiteSpace: 'pre-line' }}>{`${studioName}\n${postalAddress}`}</Text>
-    </>
-  );
-}
+import { EarlyAccessButton, WaitlistFooter } from './components/waitlist';
 
 export type WaitlistAnnouncedEmailProps = {
   studioName: string;
@@ -57,10 +41,7 @@ export function WaitlistAnnouncedEmail(props: WaitlistAnnouncedEmailProps) {
           ? 'Your early-access link below is yours alone: it lets this address hold a mask before the public opening.'
           : 'Your link below takes you straight to the drop.'}
       </Text>
-      <Button href={earlyAccessUrl} style={button}>
-        Your early-access link
-      </Button>
-      <Text style={{ ...paragraph, marginTop: '24px' }} />
+      <EarlyAccessButton href={earlyAccessUrl} />
       <WaitlistFooter {...props} />
     </EmailLayout>
   );

@@ -1,6 +1,6 @@
-import { Button, Text } from '@react-email/components';
-import { EmailLayout, button, paragraph } from './components/email-layout';
-import { WaitlistFooter } from './waitlist-announced';
+import { Text } from '@react-email/components';
+import { EmailLayout, paragraph } from './components/email-layout';
+import { EarlyAccessButton, WaitlistFooter } from './components/waitlist';
 
 export type WaitlistCorrectionEmailProps = {
   studioName: string;
@@ -32,10 +32,7 @@ export function WaitlistCorrectionEmail(props: WaitlistCorrectionEmailProps) {
             {change.earlyAccessAt ? `Early access starts ${change.earlyAccessAt}; the public opening is ${change.opensAt}.` : `The drop opens ${change.opensAt}.`}
           </Text>
           <Text style={paragraph}>{change.zoneNote}</Text>
-          <Button href={change.earlyAccessUrl} style={button}>
-            Your early-access link
-          </Button>
-          <Text style={{ ...paragraph, marginTop: '24px' }} />
+          <EarlyAccessButton href={change.earlyAccessUrl} />
         </>
       )}
       <WaitlistFooter {...props} />

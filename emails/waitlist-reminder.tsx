@@ -1,6 +1,6 @@
-import { Button, Text } from '@react-email/components';
-import { EmailLayout, button, paragraph } from './components/email-layout';
-import { WaitlistFooter } from './waitlist-announced';
+import { Text } from '@react-email/components';
+import { EmailLayout, paragraph } from './components/email-layout';
+import { EarlyAccessButton, WaitlistFooter } from './components/waitlist';
 
 export type WaitlistReminderEmailProps = {
   studioName: string;
@@ -22,10 +22,7 @@ export function WaitlistReminderEmail(props: WaitlistReminderEmailProps) {
       <Text style={paragraph}>Hello,</Text>
       <Text style={paragraph}>{`Early access to ${batchName} of ${designName} started ${earlyAccessAt}. The public opening is ${opensAt}.`}</Text>
       <Text style={paragraph}>{zoneNote}</Text>
-      <Button href={earlyAccessUrl} style={button}>
-        Your early-access link
-      </Button>
-      <Text style={{ ...paragraph, marginTop: '24px' }} />
+      <EarlyAccessButton href={earlyAccessUrl} />
       <WaitlistFooter {...props} />
     </EmailLayout>
   );
